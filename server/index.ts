@@ -1,0 +1,75 @@
+import type { Server } from 'node:http'
+import { fileURLToPath, pathToFileURL } from 'node:url'
+import { createApp } from './app.ts'
+import { createDatabase } from './db/client.ts'
+import { EnvError, parseEnv, type Env } from './env.ts'
+import { createLogger } from './logger.ts'
+
+export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
+
+export interface Serving {
+  server: Server
+  url: string
+  /** Stops taking connections, lets in-flight requests finish, then closes the pool. */
+  close(): Promise<void>
+}
+
+/** Starts the HTTP server for the API and (when built) the client. */
+export async function serve(env: Env, options: { clientDir?: string } = {}): Promise<Serving> {
+  if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
+  const logger = createLogger(env)
+  const database = createDatabase(env.DATABASE_URL, logger)
+  const app = createApp({ env, database, logger, clientDir: options.clientDir ?? defaultClientDir })
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(env.PORT, env.HOST, (err?: Error) => {
+      if (!err) return resolve(s)
+      void database.close()
+      reject(
+        (err as NodeJS.ErrnoException).code === 'EADDRINUSE'
+          ? new EnvError(
+              `Port ${env.PORT} on ${env.HOST} is in use: stop what runs there or set PORT.`,
+            )
+          : err,
+      )
+    })
+  })
+  const url = `http://${env.HOST}:${env.PORT}`
+  let closing: Promise<void> | undefined
+  const close = () =>
+    (closing ??= new Promise<void>((resolve) => {
+      // Idle keep-alive sockets would hold close() open; in-flight requests get 10 s to finish.
+      const force = setTimeout(() => server.closeAllConnections(), 10_000)
+      server.close(() => {
+        clearTimeout(force)
+        database.close().then(resolve, resolve)
+      })
+      server.closeIdleConnections()
+    }))
+  return { server, url, close }
+}
+
+/** Runs until SIGINT or SIGTERM, then shuts down gracefully and runs `onStop`. */
+export function stopOnSignals(serving: Serving, onStop: () => void | Promise<void> = () => {}) {
+  let stopping = false
+  const stop = async (signal: string) => {
+    if (stopping) return
+    stopping = true
+    console.log(`\n${signal} received: finishing requests and shutting down…`)
+    await serving.close()
+    await onStop()
+    process.exit(0)
+  }
+  process.on('SIGINT', () => void stop('SIGINT'))
+  process.on('SIGTERM', () => void stop('SIGTERM'))
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  try {
+    const serving = await serve(parseEnv())
+    console.log(`Twofold is serving on ${serving.url}`)
+    stopOnSignals(serving)
+  } catch (err) {
+    console.error(err instanceof EnvError ? err.message : err)
+    process.exit(1)
+  }
+}

@@ -1,0 +1,15 @@
+import { z } from 'zod'
+import { disciplines, squadLevels } from '../domain/club.ts'
+
+export const squadInputSchema = z.object({
+  name: z.string().trim().min(1, 'Give the squad a name.').max(80),
+  level: z.enum(squadLevels),
+  discipline: z.enum(disciplines),
+})
+export type SquadInput = z.infer<typeof squadInputSchema>
+
+export const squadSchema = squadInputSchema.extend({
+  id: z.uuid(),
+  clubId: z.uuid(),
+})
+export type Squad = z.infer<typeof squadSchema>
