@@ -1,0 +1,150 @@
+import { uniformInt } from 'pure-rand/distribution/uniformInt'
+import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
+import type { Discipline, Role, SquadLevel } from '../shared/domain/club.ts'
+import type { Db } from '../server/db/client.ts'
+import { createAthlete } from '../server/services/athletes.ts'
+import { countClubs, createClub } from '../server/services/clubs.ts'
+import { addMembership, createUser } from '../server/services/members.ts'
+import { assignCoach, createSquad } from '../server/services/squads.ts'
+import { familyNames, givenNames } from './names.ts'
+
+/** The one password of every demo sign-in; shown by `npm start` and in the README. */
+export const demoPassword = 'twofold-demo-2026'
+
+export const demoClub = { name: 'Northmere Acro & Gymnastics Club', slug: 'northmere' } as const
+
+interface DemoSquad {
+  name: string
+  level: SquadLevel
+  discipline: Discipline
+  /** Ages (in the calendar year of the seed) of the squad's athletes. */
+  ages: [number, number]
+  size: number
+}
+
+export const demoSquads: DemoSquad[] = [
+  {
+    name: 'Fledglings',
+    level: 'development',
+    discipline: 'artistic-women',
+    ages: [8, 10],
+    size: 15,
+  },
+  { name: 'Kites', level: 'intermediate', discipline: 'artistic-women', ages: [10, 12], size: 15 },
+  { name: 'Falcons', level: 'junior', discipline: 'artistic-women', ages: [13, 15], size: 16 },
+  { name: 'Harriers', level: 'senior', discipline: 'tumbling', ages: [16, 19], size: 14 },
+]
+
+interface DemoPerson {
+  email: string
+  name: string
+  role: Role
+  /** Names of the squads a coach is assigned to. */
+  squads?: string[]
+}
+
+export const demoPeople: DemoPerson[] = [
+  { email: 'director@demo.example', name: 'Imke Dunhallow', role: 'director' },
+  {
+    email: 'coach@demo.example',
+    name: 'Tomas Redmarsh',
+    role: 'coach',
+    squads: ['Kites', 'Falcons'],
+  },
+  { email: 'coach2@demo.example', name: 'Ottilie Kestlow', role: 'coach', squads: ['Fledglings'] },
+  {
+    email: 'coach3@demo.example',
+    name: 'Bastian Foxcote',
+    role: 'coach',
+    squads: ['Fledglings', 'Kites'],
+  },
+  {
+    email: 'coach4@demo.example',
+    name: 'Liv Saltcombe',
+    role: 'coach',
+    squads: ['Falcons', 'Harriers'],
+  },
+  { email: 'coach5@demo.example', name: 'Jory Pinemoor', role: 'coach', squads: ['Harriers'] },
+  { email: 'clinician@demo.example', name: 'Signe Eskdale', role: 'clinician' },
+  { email: 'board@demo.example', name: 'Rune Tarnbrook', role: 'board' },
+]
+
+export interface SeedOptions {
+  /** The day the demo is seeded as of; ages and the clinician window follow it. */
+  today?: Date
+}
+
+const isoDate = (d: Date) => d.toISOString().slice(0, 10)
+const addDays = (d: Date, days: number) => new Date(d.getTime() + days * 86_400_000)
+
+/**
+ * Loads the demo club through the same services the API uses, in one transaction. The same
+ * `today` always gives the same club: names and ages come from a fixed pseudo-random seed.
+ */
+export async function seedDemo(db: Db, options: SeedOptions = {}) {
+  const today = options.today ?? new Date()
+  const year = today.getUTCFullYear()
+  const rng = xoroshiro128plus(20260)
+  const pick = <T>(list: readonly T[]) => list[uniformInt(rng, 0, list.length - 1)]!
+
+  return db.transaction(async (tx) => {
+    const club = await createClub(tx, demoClub)
+    const squadIds = new Map<string, string>()
+    for (const squad of demoSquads) {
+      const row = await createSquad(tx, club.id, {
+        name: squad.name,
+        level: squad.level,
+        discipline: squad.discipline,
+      })
+      squadIds.set(squad.name, row.id)
+    }
+
+    const taken = new Set<string>()
+    let athleteCount = 0
+    for (const squad of demoSquads) {
+      for (let i = 0; i < squad.size; i++) {
+        let givenName: string
+        let familyName: string
+        do {
+          givenName = pick(givenNames)
+          familyName = pick(familyNames)
+        } while (taken.has(`${givenName} ${familyName}`))
+        taken.add(`${givenName} ${familyName}`)
+        await createAthlete(tx, club.id, {
+          givenName,
+          familyName,
+          birthYear: year - uniformInt(rng, squad.ages[0], squad.ages[1]),
+          squadId: squadIds.get(squad.name)!,
+          discipline: squad.discipline,
+        })
+        athleteCount++
+      }
+    }
+
+    for (const person of demoPeople) {
+      const user = await createUser(tx, {
+        email: person.email,
+        name: person.name,
+        password: demoPassword,
+      })
+      const window =
+        person.role === 'clinician'
+          ? {
+              accessStartsOn: isoDate(addDays(today, -7)),
+              accessEndsOn: isoDate(addDays(today, 21)),
+            }
+          : {}
+      await addMembership(tx, { clubId: club.id, userId: user.id, role: person.role, ...window })
+      for (const squadName of person.squads ?? []) {
+        await assignCoach(tx, club.id, squadIds.get(squadName)!, user.id)
+      }
+    }
+    return { club, squads: squadIds.size, athletes: athleteCount, people: demoPeople.length }
+  })
+}
+
+/** Seeds the demo only into an empty database, so that a restart never loads it twice. */
+export async function seedDemoIfEmpty(db: Db, options: SeedOptions = {}) {
+  if ((await countClubs(db)) > 0) return null
+  return seedDemo(db, options)
+}

@@ -1,0 +1,29 @@
+import { createServer } from 'vite'
+import { EnvError, parseEnv } from '../env.ts'
+import { serve, stopOnSignals } from '../index.ts'
+import { localDatabase, prepareDatabase, projectDir } from './bootstrap.ts'
+import { printDemoSignIns } from './demo-sign-ins.ts'
+import { PostgresSetupError, stopCluster } from './postgres.ts'
+
+// `npm run dev`: the API on PORT (default 3000) and Vite with hot reload on VITE_PORT (default
+// 5173), which proxies /api to the API and keeps the Host header.
+try {
+  const env = parseEnv()
+  const local = await localDatabase(env.DATABASE_URL)
+  await prepareDatabase(local.url)
+  const api = await serve({ ...env, DATABASE_URL: local.url }, { clientDir: '' })
+  process.env.TWOFOLD_API_URL = api.url
+  const vite = await createServer({ root: projectDir, configFile: `${projectDir}/vite.config.ts` })
+  await vite.listen()
+  vite.printUrls()
+  console.log(`API on ${api.url}`)
+  printDemoSignIns()
+  stopOnSignals(api, async () => {
+    await vite.close()
+    if (local.cluster) stopCluster(local.cluster)
+  })
+} catch (err) {
+  if (err instanceof EnvError || err instanceof PostgresSetupError) console.error(err.message)
+  else console.error(err)
+  process.exit(1)
+}

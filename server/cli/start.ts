@@ -1,0 +1,48 @@
+import { spawnSync } from 'node:child_process'
+import { join } from 'node:path'
+import { EnvError, parseEnv } from '../env.ts'
+import { serve, stopOnSignals } from '../index.ts'
+import { localDatabase, prepareDatabase, projectDir } from './bootstrap.ts'
+import { printDemoSignIns } from './demo-sign-ins.ts'
+import { PostgresSetupError, stopCluster, type Cluster } from './postgres.ts'
+
+// `npm start`: everything from a fresh clone to a served product, one step at a time.
+let startedCluster: Cluster | undefined
+try {
+  const env = parseEnv()
+  console.log('1/4 Database…')
+  const local = await localDatabase(env.DATABASE_URL)
+  startedCluster = local.cluster
+  console.log('2/4 Migrations and demo club…')
+  const seeded = await prepareDatabase(local.url)
+  console.log(
+    seeded
+      ? `    loaded the demo club "${seeded.club.name}" (${seeded.squads} squads, ${seeded.athletes} athletes)`
+      : '    data kept from the last run',
+  )
+  console.log('3/4 Building the client…')
+  const build = spawnSync(
+    join(projectDir, 'node_modules/.bin/vite'),
+    ['build', '--logLevel', 'warn'],
+    {
+      cwd: projectDir,
+      stdio: 'inherit',
+    },
+  )
+  if (build.status !== 0) throw new Error('vite build failed: see the messages above.')
+  console.log('4/4 Serving…')
+  const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'production' })
+  console.log(`\nTwofold is running at ${serving.url}  (Ctrl-C stops it)\n`)
+  printDemoSignIns()
+  stopOnSignals(serving, () => {
+    if (local.cluster) {
+      console.log('Stopping PostgreSQL…')
+      stopCluster(local.cluster)
+    }
+  })
+} catch (err) {
+  if (err instanceof EnvError || err instanceof PostgresSetupError) console.error(err.message)
+  else console.error(err)
+  if (startedCluster) stopCluster(startedCluster)
+  process.exit(1)
+}
