@@ -1,0 +1,20 @@
+import request from 'supertest'
+import pino from 'pino'
+import { createApp } from '../server/app.ts'
+import { parseEnv } from '../server/env.ts'
+import { report, time, withBenchDatabase } from './harness.ts'
+
+/** The cost of the HTTP stack on the lightest route, against the one query that route makes. */
+export default async function healthBench() {
+  await withBenchDatabase(async (database) => {
+    const app = createApp({
+      env: parseEnv({ LOG_LEVEL: 'silent' }),
+      database,
+      logger: pino({ level: 'silent' }),
+    })
+    const agent = request(app)
+    const route = await time(() => agent.get('/api/health'), 200)
+    const bare = await time(() => database.pool.query('select 1'), 200)
+    report('GET /api/health (in-process, supertest)', route, bare, 'select 1 on the pool')
+  })
+}

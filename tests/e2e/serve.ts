@@ -1,0 +1,43 @@
+import { existsSync } from 'node:fs'
+import { join } from 'node:path'
+import { parseEnv } from '../../server/env.ts'
+import { defaultClientDir, serve } from '../../server/index.ts'
+import { prepareDatabase } from '../../server/cli/bootstrap.ts'
+import {
+  clusterUrl,
+  ensureDatabase,
+  removeCluster,
+  startCluster,
+  throwawayCluster,
+} from '../../server/cli/postgres.ts'
+
+// The server of the browser tests: the production build over a throwaway cluster holding the
+// demo club, never the `npm start` data. Stops and removes the cluster on SIGTERM.
+if (!existsSync(join(defaultClientDir, 'index.html'))) {
+  console.error('No client build in dist/: run `npm run build` first.')
+  process.exit(1)
+}
+const cluster = await throwawayCluster('twofold-e2e-')
+startCluster(cluster)
+await ensureDatabase(cluster, 'twofold_e2e')
+const url = clusterUrl(cluster, 'twofold_e2e')
+await prepareDatabase(url)
+const env = parseEnv({
+  ...process.env,
+  PORT: process.env.E2E_PORT ?? '3100',
+  LOG_LEVEL: 'warn',
+  DATABASE_URL: url,
+})
+const serving = await serve({ ...env, NODE_ENV: 'test' })
+console.log(`e2e server on ${serving.url}`)
+
+let stopping = false
+async function stop() {
+  if (stopping) return
+  stopping = true
+  await serving.close()
+  removeCluster(cluster)
+  process.exit(0)
+}
+process.on('SIGTERM', () => void stop())
+process.on('SIGINT', () => void stop())

@@ -1,0 +1,17 @@
+import { mkdirSync } from 'node:fs'
+import type { Page } from '@playwright/test'
+
+export const screenshotDir = 'tests/e2e/screenshots'
+
+/** Writes a full-page screenshot for people to look at after the run. */
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(screenshotDir, { recursive: true })
+  await page.screenshot({ path: `${screenshotDir}/${name}.png`, fullPage: true })
+}
+
+/** Collects the URL of every request the page makes, to check that none leaves the machine. */
+export function recordRequests(page: Page): string[] {
+  const urls: string[] = []
+  page.on('request', (req) => urls.push(req.url()))
+  return urls
+}

@@ -1,0 +1,40 @@
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Database } from '../../server/db/client.ts'
+import { apiErrorBodySchema } from '../../shared/schemas/errors.ts'
+import { freshDatabase } from '../support/database.ts'
+import { testApp } from '../support/app.ts'
+
+let database: Database
+beforeAll(async () => {
+  database = await freshDatabase()
+})
+afterAll(() => database.close())
+
+describe('API errors', () => {
+  it('answers an unknown /api path with a JSON 404 in the error shape', async () => {
+    const res = await request(testApp(database)).get('/api/no-such-thing')
+    expect(res.status).toBe(404)
+    expect(res.headers['content-type']).toMatch(/application\/json/)
+    expect(apiErrorBodySchema.parse(res.body).error.code).toBe('not_found')
+  })
+
+  it('answers a malformed JSON body with 400 in the error shape, not 500', async () => {
+    const res = await request(testApp(database))
+      .post('/api/health')
+      .set('Content-Type', 'application/json')
+      .send('{"name": "unfinished')
+    expect(res.status).toBe(400)
+    expect(res.body).toEqual({
+      error: { code: 'malformed_json', message: 'The request body is not valid JSON.' },
+    })
+  })
+
+  it('sends the security headers, with a CSP that allows only its own origin for scripts', async () => {
+    const res = await request(testApp(database)).get('/api/health')
+    const csp = String(res.headers['content-security-policy'])
+    expect(csp).toContain("script-src 'self'")
+    expect(csp).not.toMatch(/script-src[^;]*unsafe-inline/)
+    expect(res.headers['x-content-type-options']).toBe('nosniff')
+  })
+})
