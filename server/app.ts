@@ -4,21 +4,48 @@ import express from 'express'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
 import type { Logger } from 'pino'
+import { requireClubAccess } from './auth/club-access.ts'
+import { createSessions } from './auth/sessions.ts'
+import { SignInThrottle } from './auth/throttle.ts'
+import type { AppContext } from './context.ts'
 import type { Database } from './db/client.ts'
 import type { Env } from './env.ts'
 import { apiNotFound, errorHandler } from './http/errors.ts'
+import { requireSameOrigin } from './http/same-origin.ts'
+import type { Mailer } from './mail/mailer.ts'
+import { authRouter } from './routes/auth.ts'
+import { clubRoutesRouter, type ClubRoute } from './routes/club-routes.ts'
 import { healthRouter } from './routes/health.ts'
+import { allClubRoutes } from './routes/index.ts'
 
 export interface AppOptions {
   env: Env
   database: Database
   logger: Logger
+  mailer: Mailer
+  throttle?: SignInThrottle
   /** The built client (vite build output) to serve; omitted in tests and under `npm run dev`. */
   clientDir?: string
 }
 
-export function createApp({ env, database, logger, clientDir }: AppOptions) {
+export function createApp({ env, database, logger, mailer, throttle, clientDir }: AppOptions) {
+  const sessions = createSessions(database.db, {
+    idleMinutes: env.SESSION_IDLE_MINUTES,
+    absoluteHours: env.SESSION_ABSOLUTE_HOURS,
+    secure: env.PUBLIC_URL?.startsWith('https:') ?? false,
+  })
+  const ctx: AppContext = {
+    env,
+    db: database.db,
+    sessions,
+    mailer,
+    throttle: throttle ?? new SignInThrottle(),
+    logger,
+  }
+  const clubRoutes: ClubRoute[] = allClubRoutes(ctx)
+
   const app = express()
+  app.locals.clubRoutes = clubRoutes
   app.disable('x-powered-by')
   app.set('trust proxy', env.TRUST_PROXY)
 
@@ -49,7 +76,11 @@ export function createApp({ env, database, logger, clientDir }: AppOptions) {
   app.use(express.json({ limit: '1mb' }))
 
   const api = express.Router()
+  api.use(requireSameOrigin(env.PUBLIC_URL))
   api.use(healthRouter(database))
+  api.use(sessions.load)
+  api.use('/auth', authRouter(ctx))
+  api.use('/clubs/:clubId', requireClubAccess(database.db, sessions), clubRoutesRouter(clubRoutes))
   api.use(apiNotFound)
   app.use('/api', api)
 

@@ -4,6 +4,7 @@ import { createApp } from './app.ts'
 import { createDatabase } from './db/client.ts'
 import { EnvError, parseEnv, type Env } from './env.ts'
 import { createLogger } from './logger.ts'
+import { createMailer } from './mail/mailer.ts'
 
 export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
 
@@ -19,11 +20,19 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
   const logger = createLogger(env)
   const database = createDatabase(env.DATABASE_URL, logger)
-  const app = createApp({ env, database, logger, clientDir: options.clientDir ?? defaultClientDir })
+  const mailer = await createMailer(env, logger)
+  const app = createApp({
+    env,
+    database,
+    logger,
+    mailer,
+    clientDir: options.clientDir ?? defaultClientDir,
+  })
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(env.PORT, env.HOST, (err?: Error) => {
       if (!err) return resolve(s)
       void database.close()
+      void mailer.close()
       reject(
         (err as NodeJS.ErrnoException).code === 'EADDRINUSE'
           ? new EnvError(
@@ -41,7 +50,7 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
       const force = setTimeout(() => server.closeAllConnections(), 10_000)
       server.close(() => {
         clearTimeout(force)
-        database.close().then(resolve, resolve)
+        Promise.allSettled([database.close(), mailer.close()]).then(() => resolve())
       })
       server.closeIdleConnections()
     }))

@@ -117,3 +117,56 @@ export const athletes = pgTable(
     index().on(t.clubId, t.squadId),
   ],
 )
+
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** Moves forward with activity (idle timeout); never past createdAt + absolute lifetime. */
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+    /** The club this session last worked in; ending that membership ends the session. */
+    clubId: uuid().references(() => clubs.id, { onDelete: 'set null' }),
+    userAgent: text(),
+  },
+  (t) => [index().on(t.userId)],
+)
+
+export const invitations = pgTable(
+  'invitations',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    email: text().notNull(),
+    role: roleEnum().notNull(),
+    accessStartsOn: date(),
+    accessEndsOn: date(),
+    /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
+    tokenHash: text().notNull().unique(),
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    invitedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    acceptedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    withdrawnAt: timestamp({ withTimezone: true, mode: 'date' }),
+  },
+  (t) => [primaryKey({ columns: [t.clubId, t.id] })],
+)
+
+export const passwordResets = pgTable(
+  'password_resets',
+  {
+    tokenHash: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    usedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index().on(t.userId)],
+)

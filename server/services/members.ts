@@ -1,8 +1,24 @@
 import { randomUUID } from 'node:crypto'
-import type { Role } from '../../shared/domain/club.ts'
-import { hashPassword } from '../auth/password.ts'
+import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { roleLabels, type Role } from '../../shared/domain/club.ts'
+import type {
+  AcceptInvitationInput,
+  InvitationInput,
+  InvitationPreview,
+  InvitationView,
+  MemberView,
+  MembershipUpdate,
+} from '../../shared/schemas/auth.ts'
+import { hashPassword, verifyPassword } from '../auth/password.ts'
+import { hashToken, newToken } from '../auth/tokens.ts'
+import type { ClubAccess } from '../auth/club-access.ts'
+import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { memberships, users } from '../db/schema.ts'
+import { clubs, coachSquads, invitations, memberships, users } from '../db/schema.ts'
+import { AppError, notFound } from '../http/errors.ts'
+import { assertStrongPassword, findUserByEmail } from './accounts.ts'
+
+export const invitationLifetimeMs = 7 * 24 * 3_600_000
 
 export interface NewUser {
   email: string
@@ -36,4 +52,370 @@ export interface NewMembership {
 export async function addMembership(db: DbOrTx, input: NewMembership) {
   const [membership] = await db.insert(memberships).values(input).returning()
   return membership!
+}
+
+/** Only clinicians carry a visit window. */
+const windowFor = (role: Role, starts?: string | null, ends?: string | null) =>
+  role === 'clinician'
+    ? { accessStartsOn: starts ?? null, accessEndsOn: ends ?? null }
+    : { accessStartsOn: null, accessEndsOn: null }
+
+export async function listMembers(db: DbOrTx, clubId: string): Promise<MemberView[]> {
+  const rows = await db
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      accessStartsOn: memberships.accessStartsOn,
+      accessEndsOn: memberships.accessEndsOn,
+    })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.clubId, clubId))
+    .orderBy(memberships.role, users.name)
+  const assignments = await db.select().from(coachSquads).where(eq(coachSquads.clubId, clubId))
+  return rows.map((r) => ({
+    ...r,
+    squadIds: assignments.filter((a) => a.userId === r.userId).map((a) => a.squadId),
+  }))
+}
+
+async function otherDirectors(db: DbOrTx, clubId: string, userId: string) {
+  const rows = await db
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.clubId, clubId), eq(memberships.role, 'director')))
+  return rows.filter((r) => r.userId !== userId).length
+}
+
+export async function updateMembership(
+  ctx: AppContext,
+  access: ClubAccess,
+  userId: string,
+  input: MembershipUpdate,
+) {
+  await ctx.db.transaction(async (tx) => {
+    const [current] = await tx
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, userId)))
+      .for('update')
+    if (!current) throw notFound('No such member in this club.')
+    if (
+      current.role === 'director' &&
+      input.role !== 'director' &&
+      (await otherDirectors(tx, access.clubId, userId)) === 0
+    ) {
+      throw new AppError(
+        409,
+        'last_director',
+        'The club needs at least one director: make someone else director first.',
+        [{ path: 'role', message: 'The club needs at least one director.' }],
+      )
+    }
+    await tx
+      .update(memberships)
+      .set({ role: input.role, ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn) })
+      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, userId)))
+    if (input.role !== 'coach') {
+      await tx
+        .delete(coachSquads)
+        .where(and(eq(coachSquads.clubId, access.clubId), eq(coachSquads.userId, userId)))
+    }
+  })
+}
+
+/** Ends a membership and every session of that person working in this club. */
+export async function endMembership(ctx: AppContext, access: ClubAccess, userId: string) {
+  await ctx.db.transaction(async (tx) => {
+    const [current] = await tx
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, userId)))
+      .for('update')
+    if (!current) throw notFound('No such member in this club.')
+    if (current.role === 'director' && (await otherDirectors(tx, access.clubId, userId)) === 0) {
+      throw new AppError(
+        409,
+        'last_director',
+        'The club needs at least one director: make someone else director first.',
+      )
+    }
+    await tx
+      .delete(memberships)
+      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, userId)))
+  })
+  await ctx.sessions.endInClub(userId, access.clubId)
+}
+
+const invitationStatus = (expiresAt: Date) =>
+  expiresAt.getTime() > Date.now() ? 'pending' : 'expired'
+
+export async function listInvitations(db: DbOrTx, clubId: string): Promise<InvitationView[]> {
+  const rows = await db
+    .select()
+    .from(invitations)
+    .where(
+      and(
+        eq(invitations.clubId, clubId),
+        isNull(invitations.acceptedAt),
+        isNull(invitations.withdrawnAt),
+      ),
+    )
+    .orderBy(invitations.createdAt)
+  return rows.map((r) => ({
+    id: r.id,
+    email: r.email,
+    role: r.role,
+    accessStartsOn: r.accessStartsOn,
+    accessEndsOn: r.accessEndsOn,
+    createdAt: r.createdAt.toISOString(),
+    expiresAt: r.expiresAt.toISOString(),
+    status: invitationStatus(r.expiresAt),
+  }))
+}
+
+async function sendInvitation(
+  ctx: AppContext,
+  invitation: {
+    clubId: string
+    email: string
+    role: Role
+    accessStartsOn: string | null
+    accessEndsOn: string | null
+  },
+  token: string,
+  origin: string,
+) {
+  const [club] = await ctx.db.select().from(clubs).where(eq(clubs.id, invitation.clubId))
+  const window =
+    invitation.role === 'clinician'
+      ? [
+          '',
+          `Your access to the club's squads is open from ${invitation.accessStartsOn} to ${invitation.accessEndsOn}.`,
+        ]
+      : []
+  await ctx.mailer.send({
+    to: invitation.email,
+    subject: `You are invited to ${club!.name} on Twofold`,
+    text: [
+      'Hello,',
+      '',
+      `${club!.name} invites you to join its Twofold space as ${roleLabels[invitation.role]}.`,
+      ...window,
+      '',
+      'Open this link within 7 days to accept:',
+      '',
+      `${origin}/accept-invitation#token=${token}`,
+      '',
+      'The link works once. If you did not expect this invitation, ignore this message.',
+    ].join('\n'),
+  })
+}
+
+export async function createInvitation(
+  ctx: AppContext,
+  access: ClubAccess,
+  input: InvitationInput,
+  origin: string,
+) {
+  const existing = await findUserByEmail(ctx.db, input.email)
+  if (existing) {
+    const [member] = await ctx.db
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, existing.id)))
+    if (member) {
+      throw new AppError(
+        409,
+        'already_member',
+        `${input.email} is already a member of this club.`,
+        [{ path: 'email', message: 'Already a member of this club.' }],
+      )
+    }
+  }
+  const pending = await ctx.db
+    .select()
+    .from(invitations)
+    .where(
+      and(
+        eq(invitations.clubId, access.clubId),
+        eq(sql`lower(${invitations.email})`, input.email),
+        isNull(invitations.acceptedAt),
+        isNull(invitations.withdrawnAt),
+        gt(invitations.expiresAt, new Date()),
+      ),
+    )
+  if (pending.length > 0) {
+    throw new AppError(
+      409,
+      'already_invited',
+      `${input.email} has a pending invitation: resend or withdraw it.`,
+      [{ path: 'email', message: 'Already invited: resend or withdraw that invitation.' }],
+    )
+  }
+  const token = newToken()
+  const [row] = await ctx.db
+    .insert(invitations)
+    .values({
+      clubId: access.clubId,
+      email: input.email,
+      role: input.role,
+      ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
+      tokenHash: hashToken(token),
+      expiresAt: new Date(Date.now() + invitationLifetimeMs),
+      invitedBy: access.userId,
+    })
+    .returning()
+  await sendInvitation(ctx, row!, token, origin)
+  return (await listInvitations(ctx.db, access.clubId)).find((i) => i.id === row!.id)!
+}
+
+async function openInvitation(db: DbOrTx, clubId: string, id: string) {
+  const [row] = await db
+    .select()
+    .from(invitations)
+    .where(
+      and(
+        eq(invitations.clubId, clubId),
+        eq(invitations.id, id),
+        isNull(invitations.acceptedAt),
+        isNull(invitations.withdrawnAt),
+      ),
+    )
+  if (!row) throw notFound('No such open invitation.')
+  return row
+}
+
+/** A new link and a new 7-day expiry; the old link stops working. */
+export async function resendInvitation(
+  ctx: AppContext,
+  access: ClubAccess,
+  id: string,
+  origin: string,
+) {
+  const row = await openInvitation(ctx.db, access.clubId, id)
+  const token = newToken()
+  await ctx.db
+    .update(invitations)
+    .set({ tokenHash: hashToken(token), expiresAt: new Date(Date.now() + invitationLifetimeMs) })
+    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+  await sendInvitation(ctx, row, token, origin)
+}
+
+export async function withdrawInvitation(ctx: AppContext, access: ClubAccess, id: string) {
+  await openInvitation(ctx.db, access.clubId, id)
+  await ctx.db
+    .update(invitations)
+    .set({ withdrawnAt: new Date() })
+    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+}
+
+const invalidInvitation = () =>
+  new AppError(
+    410,
+    'invitation_invalid',
+    'This invitation has expired, was withdrawn or was already used. Ask the club for a new one.',
+  )
+
+async function usableInvitation(db: DbOrTx, token: string) {
+  const [row] = await db
+    .select({ invitation: invitations, clubName: clubs.name })
+    .from(invitations)
+    .innerJoin(clubs, eq(clubs.id, invitations.clubId))
+    .where(
+      and(
+        eq(invitations.tokenHash, hashToken(token)),
+        isNull(invitations.acceptedAt),
+        isNull(invitations.withdrawnAt),
+        gt(invitations.expiresAt, new Date()),
+      ),
+    )
+  if (!row) throw invalidInvitation()
+  return row
+}
+
+export async function previewInvitation(db: DbOrTx, token: string): Promise<InvitationPreview> {
+  const { invitation, clubName } = await usableInvitation(db, token)
+  return {
+    clubName,
+    email: invitation.email,
+    role: invitation.role,
+    accessStartsOn: invitation.accessStartsOn,
+    accessEndsOn: invitation.accessEndsOn,
+    existingAccount: Boolean(await findUserByEmail(db, invitation.email)),
+  }
+}
+
+/**
+ * Accepts an invitation: a new account (name and a strong password) or, for a person who has
+ * one, their current password. The token is spent in the same transaction as the membership.
+ */
+export async function acceptInvitation(ctx: AppContext, input: AcceptInvitationInput) {
+  const { invitation } = await usableInvitation(ctx.db, input.token)
+  const existing = await findUserByEmail(ctx.db, invitation.email)
+  let passwordHash: string | undefined
+  if (existing) {
+    if (!existing.passwordHash || !(await verifyPassword(existing.passwordHash, input.password))) {
+      throw new AppError(
+        400,
+        'wrong_password',
+        'That is not the password of your existing account.',
+        [{ path: 'password', message: 'Enter the password of your existing Twofold account.' }],
+      )
+    }
+  } else {
+    if (!input.name)
+      throw new AppError(400, 'invalid_input', 'Enter your name.', [
+        { path: 'name', message: 'Enter your name.' },
+      ])
+    await assertStrongPassword(input.password, 'password', [invitation.email, input.name])
+    passwordHash = await hashPassword(input.password)
+  }
+  return ctx.db.transaction(async (tx) => {
+    const spent = await tx
+      .update(invitations)
+      .set({ acceptedAt: new Date() })
+      .where(
+        and(
+          eq(invitations.clubId, invitation.clubId),
+          eq(invitations.id, invitation.id),
+          isNull(invitations.acceptedAt),
+        ),
+      )
+      .returning()
+    if (spent.length === 0) throw invalidInvitation()
+    const user =
+      existing ??
+      (
+        await tx
+          .insert(users)
+          .values({
+            id: randomUUID(),
+            email: invitation.email,
+            name: input.name!,
+            passwordHash: passwordHash!,
+          })
+          .returning()
+      )[0]!
+    await tx
+      .insert(memberships)
+      .values({
+        clubId: invitation.clubId,
+        userId: user.id,
+        role: invitation.role,
+        accessStartsOn: invitation.accessStartsOn,
+        accessEndsOn: invitation.accessEndsOn,
+      })
+      .onConflictDoUpdate({
+        target: [memberships.clubId, memberships.userId],
+        set: {
+          role: invitation.role,
+          accessStartsOn: invitation.accessStartsOn,
+          accessEndsOn: invitation.accessEndsOn,
+        },
+      })
+    return { user, clubId: invitation.clubId }
+  })
 }

@@ -16,3 +16,11 @@ export const disciplineLabels: Record<Discipline, string> = {
 /** Squad levels from the youngest group to the competitive top. */
 export const squadLevels = ['development', 'intermediate', 'junior', 'senior'] as const
 export type SquadLevel = (typeof squadLevels)[number]
+
+/** How each role is named to people. */
+export const roleLabels: Record<Role, string> = {
+  director: 'technical director',
+  coach: 'coach',
+  clinician: 'visiting clinician',
+  board: 'board member',
+}

@@ -3,24 +3,29 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { apiErrorBodySchema } from '../../shared/schemas/errors.ts'
 import { freshDatabase } from '../support/database.ts'
-import { testApp } from '../support/app.ts'
+import { testApp, type TestApp } from '../support/app.ts'
 
 let database: Database
+let t: TestApp
 beforeAll(async () => {
   database = await freshDatabase()
+  t = await testApp(database)
 })
-afterAll(() => database.close())
+afterAll(async () => {
+  await t.close()
+  await database.close()
+})
 
 describe('API errors', () => {
   it('answers an unknown /api path with a JSON 404 in the error shape', async () => {
-    const res = await request(testApp(database)).get('/api/no-such-thing')
+    const res = await request(t.app).get('/api/no-such-thing')
     expect(res.status).toBe(404)
     expect(res.headers['content-type']).toMatch(/application\/json/)
     expect(apiErrorBodySchema.parse(res.body).error.code).toBe('not_found')
   })
 
   it('answers a malformed JSON body with 400 in the error shape, not 500', async () => {
-    const res = await request(testApp(database))
+    const res = await request(t.app)
       .post('/api/health')
       .set('Content-Type', 'application/json')
       .send('{"name": "unfinished')
@@ -31,7 +36,7 @@ describe('API errors', () => {
   })
 
   it('sends the security headers, with a CSP that allows only its own origin for scripts', async () => {
-    const res = await request(testApp(database)).get('/api/health')
+    const res = await request(t.app).get('/api/health')
     const csp = String(res.headers['content-security-policy'])
     expect(csp).toContain("script-src 'self'")
     expect(csp).not.toMatch(/script-src[^;]*unsafe-inline/)

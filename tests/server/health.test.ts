@@ -14,11 +14,13 @@ import { testApp } from '../support/app.ts'
 describe('GET /api/health', () => {
   it('answers ok with the database up', async () => {
     const database = await freshDatabase()
+    const t = await testApp(database)
     try {
-      const res = await request(testApp(database)).get('/api/health')
+      const res = await request(t.app).get('/api/health')
       expect(res.status).toBe(200)
       expect(res.body).toEqual({ status: 'ok', database: 'up' })
     } finally {
+      await t.close()
       await database.close()
     }
   })
@@ -34,7 +36,8 @@ describe('GET /api/health', () => {
 
     it('answers 503 with the database down, and ok again once it is back', async () => {
       const database = createDatabase(clusterUrl(cluster, 'postgres'))
-      const app = testApp(database)
+      const t = await testApp(database)
+      const app = t.app
       try {
         expect((await request(app).get('/api/health')).body.database).toBe('up')
 
@@ -48,6 +51,7 @@ describe('GET /api/health', () => {
         expect(up.status).toBe(200)
         expect(up.body).toEqual({ status: 'ok', database: 'up' })
       } finally {
+        await t.close()
         await database.close()
       }
     })

@@ -1,11 +1,38 @@
 import pino from 'pino'
 import { createApp } from '../../server/app.ts'
+import { SignInThrottle } from '../../server/auth/throttle.ts'
 import type { Database } from '../../server/db/client.ts'
-import { parseEnv } from '../../server/env.ts'
+import { parseEnv, type Env } from '../../server/env.ts'
+import { createMailer, type Mailer } from '../../server/mail/mailer.ts'
+import type { ClubRoute } from '../../server/routes/club-routes.ts'
 
 export const testEnv = parseEnv({ NODE_ENV: 'test', LOG_LEVEL: 'silent' })
 
-/** The real app over a test database, without the built client. */
-export function testApp(database: Database) {
-  return createApp({ env: testEnv, database, logger: pino({ level: 'silent' }) })
+export interface TestApp {
+  app: ReturnType<typeof createApp>
+  mailer: Mailer
+  clubRoutes: ClubRoute[]
+  close(): Promise<void>
+}
+
+/** The real app over a test database, with the local fake mail server and no built client. */
+export async function testApp(
+  database: Database,
+  options: { env?: Partial<Env>; throttle?: SignInThrottle } = {},
+): Promise<TestApp> {
+  const env = { ...testEnv, ...options.env }
+  const mailer = await createMailer(env)
+  const app = createApp({
+    env,
+    database,
+    logger: pino({ level: 'silent' }),
+    mailer,
+    throttle: options.throttle,
+  })
+  return {
+    app,
+    mailer,
+    clubRoutes: app.locals.clubRoutes as ClubRoute[],
+    close: () => mailer.close(),
+  }
 }

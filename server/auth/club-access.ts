@@ -1,0 +1,81 @@
+import { and, eq } from 'drizzle-orm'
+import type { RequestHandler } from 'express'
+import { z } from 'zod'
+import type { Role } from '../../shared/domain/club.ts'
+import { todayIso, windowOpen } from '../../shared/domain/access.ts'
+import type { Db } from '../db/client.ts'
+import { memberships } from '../db/schema.ts'
+import { AppError } from '../http/errors.ts'
+import type { Sessions } from './sessions.ts'
+
+export interface ClubAccess {
+  clubId: string
+  userId: string
+  role: Role
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    /** Set by `requireClubAccess` on every /api/clubs/:clubId route. */
+    club?: ClubAccess
+  }
+}
+
+export const unauthenticated = () => new AppError(401, 'unauthenticated', 'Please sign in.')
+
+/** Rejects requests that are not signed in. */
+export const requireSignIn: RequestHandler = (req, _res, next) => {
+  next(req.auth ? undefined : unauthenticated())
+}
+
+const clubIdSchema = z.uuid()
+
+/**
+ * Deny by default: the person must be signed in and a member of the club in the path; a
+ * clinician only inside the visit window. Another club's id answers 404, as if it did not exist.
+ */
+export function requireClubAccess(db: Db, sessions: Sessions): RequestHandler {
+  return async (req, _res, next) => {
+    if (!req.auth) throw unauthenticated()
+    const parsed = clubIdSchema.safeParse(req.params.clubId)
+    if (!parsed.success) throw new AppError(404, 'not_found', 'No such club.')
+    const clubId = parsed.data
+    const [membership] = await db
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.clubId, clubId), eq(memberships.userId, req.auth.user.id)))
+    if (!membership) throw new AppError(404, 'not_found', 'No such club.')
+    if (
+      membership.role === 'clinician' &&
+      !windowOpen(todayIso(), membership.accessStartsOn, membership.accessEndsOn)
+    ) {
+      throw new AppError(
+        403,
+        'access_window_closed',
+        `Your visit window runs from ${membership.accessStartsOn} to ${membership.accessEndsOn}; the club's data is open to you only then.`,
+      )
+    }
+    if (req.auth.session.clubId !== clubId) {
+      await sessions.setClub(req.auth.session.id, clubId)
+      req.auth.session.clubId = clubId
+    }
+    req.club = { clubId, userId: req.auth.user.id, role: membership.role }
+    next()
+  }
+}
+
+const refusals: Record<Role, string> = {
+  director: 'This is not available to directors.',
+  coach: 'Only the technical director can do this.',
+  clinician: 'Visiting clinicians can read squads and leave recommendations, not this.',
+  board: 'Board members see the board summary only.',
+}
+
+/** The route's own role list, checked after `requireClubAccess`. */
+export function allowRoles(allowed: readonly Role[]): RequestHandler {
+  return (req, _res, next) => {
+    const role = req.club?.role
+    if (!role) return next(unauthenticated())
+    next(allowed.includes(role) ? undefined : new AppError(403, 'forbidden', refusals[role]))
+  }
+}

@@ -1,0 +1,128 @@
+import { createHash } from 'node:crypto'
+import { and, eq, ne } from 'drizzle-orm'
+import type { Request, RequestHandler, Response } from 'express'
+import type { SessionView } from '../../shared/schemas/auth.ts'
+import type { Db } from '../db/client.ts'
+import { sessions } from '../db/schema.ts'
+import { createLucia, type Session, type SessionSettings, type User } from './lucia.ts'
+
+export interface AuthContext {
+  user: User
+  session: Session
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    /** The signed-in person, set by `loadSession`; null when signed out. */
+    auth?: AuthContext | null
+  }
+}
+
+/** A public handle for a session: lets a person end one of their sessions without its secret. */
+export const sessionHandle = (id: string) =>
+  createHash('sha256').update(id).digest('hex').slice(0, 24)
+
+/**
+ * Sessions: a random id in an HttpOnly SameSite=Lax cookie, stored server side, sliding idle
+ * timeout and a hard absolute lifetime counted from sign-in.
+ */
+export function createSessions(db: Db, settings: SessionSettings) {
+  const lucia = createLucia(db, settings)
+  const idleMs = settings.idleMinutes * 60_000
+  const absoluteMs = settings.absoluteHours * 3_600_000
+
+  async function start(
+    res: Response,
+    userId: string,
+    meta: { clubId: string | null; userAgent?: string },
+  ) {
+    const session = await lucia.createSession(userId, {
+      createdAt: new Date(),
+      clubId: meta.clubId,
+      userAgent: meta.userAgent?.slice(0, 300) ?? null,
+    })
+    res.append('Set-Cookie', lucia.createSessionCookie(session.id).serialize())
+    return session
+  }
+
+  function clearCookie(res: Response) {
+    res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize())
+  }
+
+  /** Reads and checks the cookie; extends the idle timeout; ends sessions past their lifetime. */
+  const load: RequestHandler = async (req, res, next) => {
+    req.auth = null
+    const id = lucia.readSessionCookie(req.headers.cookie ?? '')
+    if (!id) return next()
+    const { session, user } = await lucia.validateSession(id)
+    if (!session || !user) {
+      clearCookie(res)
+      return next()
+    }
+    const now = Date.now()
+    const deadline = session.createdAt.getTime() + absoluteMs
+    if (now >= deadline) {
+      await lucia.invalidateSession(session.id)
+      clearCookie(res)
+      return next()
+    }
+    // Slide the idle timeout at most once a minute, never past the absolute deadline.
+    const wanted = Math.min(now + idleMs, deadline)
+    if (wanted - session.expiresAt.getTime() > 60_000) {
+      session.expiresAt = new Date(wanted)
+      await db
+        .update(sessions)
+        .set({ expiresAt: session.expiresAt })
+        .where(eq(sessions.id, session.id))
+    }
+    req.auth = { session, user }
+    next()
+  }
+
+  return {
+    lucia,
+    load,
+    start,
+    clearCookie,
+    async end(req: Request, res: Response) {
+      if (req.auth) await lucia.invalidateSession(req.auth.session.id)
+      clearCookie(res)
+    },
+    endAll: (userId: string) => lucia.invalidateUserSessions(userId),
+    async endOthers(userId: string, keepId: string) {
+      await db.delete(sessions).where(and(eq(sessions.userId, userId), ne(sessions.id, keepId)))
+    },
+    async endInClub(userId: string, clubId: string) {
+      await db.delete(sessions).where(and(eq(sessions.userId, userId), eq(sessions.clubId, clubId)))
+    },
+    async setClub(sessionId: string, clubId: string) {
+      await db.update(sessions).set({ clubId }).where(eq(sessions.id, sessionId))
+    },
+    async list(userId: string, currentId: string): Promise<SessionView[]> {
+      const rows = await db.select().from(sessions).where(eq(sessions.userId, userId))
+      return rows
+        .filter((r) => r.expiresAt.getTime() > Date.now())
+        .sort((a, b) => b.createdAt.getTime() - a.createdAt.getTime())
+        .map((r) => ({
+          handle: sessionHandle(r.id),
+          createdAt: r.createdAt.toISOString(),
+          expiresAt: r.expiresAt.toISOString(),
+          userAgent: r.userAgent,
+          current: r.id === currentId,
+        }))
+    },
+    /** Ends one of the person's own sessions by its handle; false when there is none. */
+    async endByHandle(userId: string, handle: string) {
+      const rows = await db
+        .select({ id: sessions.id })
+        .from(sessions)
+        .where(eq(sessions.userId, userId))
+      const match = rows.find((r) => sessionHandle(r.id) === handle)
+      if (!match) return false
+      await lucia.invalidateSession(match.id)
+      return true
+    },
+  }
+}
+
+export type Sessions = ReturnType<typeof createSessions>

@@ -1,0 +1,165 @@
+import { randomBytes } from 'node:crypto'
+import request from 'supertest'
+import type TestAgent from 'supertest/lib/agent.js'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Role } from '../../shared/domain/club.ts'
+import type { Database } from '../../server/db/client.ts'
+import { addMembership, createUser } from '../../server/services/members.ts'
+import { freshDatabase } from '../support/database.ts'
+import { testApp, type TestApp } from '../support/app.ts'
+import { clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
+
+// Every route under /api/clubs/:clubId, with who may use it and what a permitted request gets.
+// A route added to the server without a row here fails the first test; a row here without a
+// route fails it too. Each row builds a valid request, so a permitted role gets the real answer.
+
+type Fixture = Awaited<ReturnType<typeof clubWithPeople>> & { db: Database; director: TestAgent }
+interface Row {
+  allow: Role[]
+  ok: number
+  request: (f: Fixture) => Promise<{ path: string; body?: unknown }>
+}
+
+const unique = () => randomBytes(5).toString('hex')
+async function throwawayMember(f: Fixture) {
+  const user = await createUser(f.db.db, {
+    email: `m-${unique()}@test.example`,
+    name: 'Temp',
+    password: testPassword,
+  })
+  await addMembership(f.db.db, { clubId: f.club.id, userId: user.id, role: 'coach' })
+  return user.id
+}
+async function pendingInvitation(f: Fixture) {
+  const res = await f.director
+    .post(`/api/clubs/${f.club.id}/invitations`)
+    .send({ email: `i-${unique()}@test.example`, role: 'board' })
+  return res.body.id as string
+}
+
+const matrix: Record<string, Row> = {
+  'GET /': {
+    allow: ['director', 'coach', 'clinician', 'board'],
+    ok: 200,
+    request: async () => ({ path: '/' }),
+  },
+  'GET /outbox': { allow: ['director'], ok: 200, request: async () => ({ path: '/outbox' }) },
+  'GET /members': { allow: ['director'], ok: 200, request: async () => ({ path: '/members' }) },
+  'PATCH /members/:userId': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/members/${await throwawayMember(f)}`,
+      body: { role: 'board' },
+    }),
+  },
+  'DELETE /members/:userId': {
+    allow: ['director'],
+    ok: 204,
+    request: async (f) => ({ path: `/members/${await throwawayMember(f)}` }),
+  },
+  'GET /invitations': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({ path: '/invitations' }),
+  },
+  'POST /invitations': {
+    allow: ['director'],
+    ok: 201,
+    request: async () => ({
+      path: '/invitations',
+      body: { email: `n-${unique()}@test.example`, role: 'coach' },
+    }),
+  },
+  'POST /invitations/:id/resend': {
+    allow: ['director'],
+    ok: 204,
+    request: async (f) => ({ path: `/invitations/${await pendingInvitation(f)}/resend` }),
+  },
+  'DELETE /invitations/:id': {
+    allow: ['director'],
+    ok: 204,
+    request: async (f) => ({ path: `/invitations/${await pendingInvitation(f)}` }),
+  },
+}
+
+let database: Database
+let t: TestApp
+let f: Fixture
+let agents: Record<Role | 'otherClub', TestAgent>
+
+beforeAll(async () => {
+  database = await freshDatabase()
+  t = await testApp(database)
+  const club = await clubWithPeople(database.db, 'matrix')
+  const other = await clubWithPeople(database.db, 'elsewhere')
+  agents = {
+    director: await signedIn(t, club.people.director.email),
+    coach: await signedIn(t, club.people.coach.email),
+    clinician: await signedIn(t, club.people.clinician.email),
+    board: await signedIn(t, club.people.board.email),
+    // a director, but of another club
+    otherClub: await signedIn(t, other.people.director.email),
+  }
+  f = { ...club, db: database, director: agents.director }
+})
+afterAll(async () => {
+  await t.close()
+  await database.close()
+})
+
+const send = (
+  agent: TestAgent | ReturnType<typeof request>,
+  method: string,
+  url: string,
+  body?: unknown,
+) => {
+  const call = (agent as TestAgent)[method.toLowerCase() as 'get'](url)
+  return body === undefined ? call : call.send(body as object)
+}
+
+describe('club API access matrix', () => {
+  it('has exactly one row for every club route the server registers', () => {
+    const registered = t.clubRoutes.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort()
+    expect(Object.keys(matrix).sort()).toEqual(registered)
+  })
+
+  const cases = Object.entries(matrix).flatMap(([key, row]) =>
+    (['director', 'coach', 'clinician', 'board', 'signed-out', 'otherClub'] as const).map((who) => {
+      const expected =
+        who === 'signed-out'
+          ? 401
+          : who === 'otherClub'
+            ? 404
+            : row.allow.includes(who)
+              ? row.ok
+              : 403
+      return [key, who, expected] as const
+    }),
+  )
+
+  it.each(cases)('%s as %s answers %i', async (key, who, expected) => {
+    const [method, path] = key.split(' ') as [string, string]
+    const { path: concrete, body } = await matrix[key]!.request(f)
+    expect(concrete.split('/').length).toBe(path.split('/').length)
+    const url = `/api/clubs/${f.club.id}${concrete === '/' ? '/' : concrete}`
+    const agent = who === 'signed-out' ? request(t.app) : agents[who]
+    const res = await send(agent, method, url, body)
+    expect(res.status, JSON.stringify(res.body)).toBe(expected)
+    if (expected >= 400) expect(res.body.error.code).toBeTypeOf('string')
+    if (who === 'otherClub') expect(JSON.stringify(res.body)).not.toContain(f.club.name)
+  })
+
+  it('answers 404 for a club id that is not a club at all, and for malformed ids', async () => {
+    await agents.director.get(`/api/clubs/${crypto.randomUUID()}/members`).expect(404)
+    await agents.director.get('/api/clubs/not-a-uuid/members').expect(404)
+  })
+
+  it('answers unknown paths under a club only after the membership check', async () => {
+    await request(t.app).get(`/api/clubs/${f.club.id}/no-such-route`).expect(401)
+    await agents.otherClub.get(`/api/clubs/${f.club.id}/no-such-route`).expect(404)
+    const res = await agents.director.get(`/api/clubs/${f.club.id}/no-such-route`)
+    expect(res.status).toBe(404)
+    expect(res.body.error.message).toMatch(/No API route/)
+  })
+})
