@@ -1,4 +1,18 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
+import type { Role } from '@shared/domain/club'
+import { useSessionStore } from '@/stores/session'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    title?: string
+    /** Reachable signed out (sign-in, invitation, password reset). */
+    public?: boolean
+    /** Roles that may open the page; absent means every signed-in role. */
+    roles?: Role[]
+    /** Needs the local fake mail server (the Outbox). */
+    fakeMail?: boolean
+  }
+}
 
 export const routes: RouteRecordRaw[] = [
   {
@@ -8,10 +22,58 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Overview' },
   },
   {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('@/views/SignInView.vue'),
+    meta: { title: 'Sign in', public: true },
+  },
+  {
+    path: '/forgot-password',
+    name: 'forgot-password',
+    component: () => import('@/views/ForgotPasswordView.vue'),
+    meta: { title: 'Forgotten password', public: true },
+  },
+  {
+    path: '/reset-password',
+    name: 'reset-password',
+    component: () => import('@/views/ResetPasswordView.vue'),
+    meta: { title: 'New password', public: true },
+  },
+  {
+    path: '/accept-invitation',
+    name: 'accept-invitation',
+    component: () => import('@/views/AcceptInvitationView.vue'),
+    meta: { title: 'Accept invitation', public: true },
+  },
+  {
+    path: '/members',
+    name: 'members',
+    component: () => import('@/views/MembersView.vue'),
+    meta: { title: 'Members', roles: ['director'] },
+  },
+  {
+    path: '/outbox',
+    name: 'outbox',
+    component: () => import('@/views/OutboxView.vue'),
+    meta: { title: 'Outbox', roles: ['director'], fakeMail: true },
+  },
+  {
+    path: '/account',
+    name: 'account',
+    component: () => import('@/views/AccountView.vue'),
+    meta: { title: 'Account' },
+  },
+  {
+    path: '/no-access',
+    name: 'no-access',
+    component: () => import('@/views/NoAccessView.vue'),
+    meta: { title: 'No access' },
+  },
+  {
     path: '/:pathMatch(.*)*',
     name: 'not-found',
     component: () => import('@/views/NotFoundView.vue'),
-    meta: { title: 'Page not found' },
+    meta: { title: 'Page not found', public: true },
   },
 ]
 
@@ -20,8 +82,26 @@ const router = createRouter({
   routes,
 })
 
+// The one guard: sign-in, role and visit window. The server checks all of it again.
+router.beforeEach(async (to) => {
+  const session = useSessionStore()
+  if (!session.ready) await session.load().catch(() => undefined)
+  if (to.meta.public) return true
+  if (!session.signedIn)
+    return { name: 'sign-in', query: to.fullPath !== '/' ? { next: to.fullPath } : {} }
+  if (to.name === 'no-access' || to.name === 'account') return true
+  const membership = session.membership
+  if (!membership) return { name: 'no-access', query: { reason: 'no-club' } }
+  if (!membership.accessOpen) return { name: 'no-access', query: { reason: 'window' } }
+  if (to.meta.roles && !to.meta.roles.includes(membership.role))
+    return { name: 'no-access', query: { reason: 'role' } }
+  if (to.meta.fakeMail && !session.me?.fakeMail)
+    return { name: 'not-found', params: { pathMatch: ['outbox'] } }
+  return true
+})
+
 router.afterEach((to) => {
-  document.title = to.meta.title ? `${String(to.meta.title)} · Twofold` : 'Twofold'
+  document.title = to.meta.title ? `${to.meta.title} · Twofold` : 'Twofold'
 })
 
 export default router

@@ -1,4 +1,5 @@
 import type { RouteLocationRaw } from 'vue-router'
+import type { Me, MembershipView } from '@shared/schemas/auth'
 
 export interface NavItem {
   key: string
@@ -6,7 +7,16 @@ export interface NavItem {
   to: RouteLocationRaw
 }
 
-/** The app's main navigation; each feature adds its entry here when it is built. */
-export function navigationItems(): NavItem[] {
-  return [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
+/**
+ * The main navigation for the person's role in the club they work in: only what the role may
+ * use, and only features that are built.
+ */
+export function navigationItems(me: Me | null, membership: MembershipView | null): NavItem[] {
+  if (!me || !membership || !membership.accessOpen) return []
+  const items: NavItem[] = [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
+  if (membership.role === 'director') {
+    items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
+    if (me.fakeMail) items.push({ key: 'outbox', label: 'Outbox', to: { name: 'outbox' } })
+  }
+  return items
 }

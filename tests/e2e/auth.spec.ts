@@ -1,0 +1,100 @@
+import { expect, test, type Page } from '@playwright/test'
+import { screenshot } from './support.ts'
+
+const password = 'twofold-demo-2026'
+
+async function signIn(page: Page, email: string) {
+  await page.goto('/sign-in')
+  await page.getByLabel('E-mail').fill(email)
+  await page.getByLabel('Password').fill(password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
+}
+
+async function signOut(page: Page) {
+  await page.getByRole('button', { name: /^Account of/ }).click()
+  await page.getByText('Sign out').click()
+  await expect(page).toHaveURL(/\/sign-in/)
+}
+
+const mainNav = (page: Page) => page.getByRole('navigation', { name: 'Main' }).first()
+
+test('a signed-out visitor is sent to sign-in', async ({ page }) => {
+  await page.goto('/members')
+  await expect(page).toHaveURL(/\/sign-in\?next=\/members/)
+  await expect(page.getByRole('button', { name: 'Sign in' })).toBeVisible()
+  await screenshot(page, 'sign-in')
+})
+
+test('a wrong password is refused with a readable message', async ({ page }) => {
+  await page.goto('/sign-in')
+  await page.getByLabel('E-mail').fill('director@demo.example')
+  await page.getByLabel('Password').fill('not the password')
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page.getByRole('alert')).toContainText('do not match an account')
+})
+
+const roles = [
+  {
+    email: 'director@demo.example',
+    sees: ['Overview', 'Members', 'Outbox'],
+    hidden: [] as string[],
+  },
+  { email: 'coach@demo.example', sees: ['Overview'], hidden: ['Members', 'Outbox'] },
+  { email: 'clinician@demo.example', sees: ['Overview'], hidden: ['Members', 'Outbox'] },
+  { email: 'board@demo.example', sees: ['Overview'], hidden: ['Members', 'Outbox'] },
+]
+
+for (const role of roles) {
+  test(`${role.email} signs in and sees their own navigation`, async ({ page }) => {
+    await signIn(page, role.email)
+    for (const label of role.sees)
+      await expect(mainNav(page).getByRole('link', { name: label })).toBeVisible()
+    for (const label of role.hidden)
+      await expect(mainNav(page).getByRole('link', { name: label })).toHaveCount(0)
+    await screenshot(page, `home-${role.email.split('@')[0]}`)
+    if (role.hidden.includes('Members')) {
+      await page.goto('/members')
+      await expect(page.getByText('This page is not for your role')).toBeVisible()
+    }
+    await signOut(page)
+  })
+}
+
+test('an invitation is accepted end to end with the link from the outbox', async ({ page }) => {
+  const invitee = `new.coach.${Date.now()}@demo.example`
+  await signIn(page, 'director@demo.example')
+  await mainNav(page).getByRole('link', { name: 'Members' }).click()
+  await expect(page.getByText('People in the club')).toBeVisible()
+  await page.locator('input[name="invite-email"]').fill(invitee)
+  await page.getByRole('button', { name: 'Send invitation' }).click()
+  await expect(page.getByText(`Invitation sent to ${invitee}.`)).toBeVisible()
+  await screenshot(page, 'members')
+
+  await mainNav(page).getByRole('link', { name: 'Outbox' }).click()
+  const message = page.locator('.message', { hasText: invitee }).first()
+  await expect(message).toBeVisible()
+  const link = await message.getByRole('link').first().getAttribute('href')
+  expect(link).toMatch(/\/accept-invitation#token=/)
+  await screenshot(page, 'outbox')
+  await signOut(page)
+
+  await page.goto(link!)
+  await expect(page.getByText('invites')).toContainText(invitee)
+  await page.getByLabel('Your name').fill('Noor Quarrington')
+  await page.getByLabel('Choose a password').fill('marigold-quiver-basalt-62')
+  await page.getByRole('button', { name: 'Accept and sign in' }).click()
+  await expect(page.getByText('Welcome, Noor Quarrington.')).toBeVisible()
+  await expect(page.getByText('as coach')).toBeVisible()
+  await screenshot(page, 'invitation-accepted')
+})
+
+test('the shell works on a tablet-sized screen', async ({ browser }) => {
+  const context = await browser.newContext({ viewport: { width: 768, height: 1024 } })
+  const page = await context.newPage()
+  await signIn(page, 'director@demo.example')
+  await page.getByRole('button', { name: 'Open the menu' }).click()
+  await expect(page.getByRole('dialog').getByRole('link', { name: 'Members' })).toBeVisible()
+  await screenshot(page, 'tablet-menu')
+  await context.close()
+})
