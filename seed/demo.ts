@@ -1,11 +1,15 @@
 import { uniformInt } from 'pure-rand/distribution/uniformInt'
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
 import type { Discipline, Role, SquadLevel } from '../shared/domain/club.ts'
-import type { Db } from '../server/db/client.ts'
+import { and, eq } from 'drizzle-orm'
+import type { Db, DbOrTx } from '../server/db/client.ts'
+import { memberships } from '../server/db/schema.ts'
 import { createAthlete } from '../server/services/athletes.ts'
+import { createElement } from '../server/services/catalogue.ts'
 import { countClubs, createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { assignCoach, createSquad } from '../server/services/squads.ts'
+import { demoClubElements } from './demo-elements.ts'
 import { familyNames, givenNames } from './names.ts'
 
 /** The one password of every demo sign-in; shown by `npm start` and in the README. */
@@ -139,6 +143,10 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
         await assignCoach(tx, club.id, squadIds.get(squadName)!, user.id)
       }
     }
+    const director = await findDirector(tx, club.id)
+    for (const element of demoClubElements) {
+      await createElement(tx, { clubId: club.id, userId: director, role: 'director' }, element)
+    }
     return { club, squads: squadIds.size, athletes: athleteCount, people: demoPeople.length }
   })
 }
@@ -147,4 +155,12 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
 export async function seedDemoIfEmpty(db: Db, options: SeedOptions = {}) {
   if ((await countClubs(db)) > 0) return null
   return seedDemo(db, options)
+}
+
+async function findDirector(db: DbOrTx, clubId: string) {
+  const [row] = await db
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.clubId, clubId), eq(memberships.role, 'director')))
+  return row!.userId
 }

@@ -1,9 +1,11 @@
 import { sql } from 'drizzle-orm'
 import {
+  boolean,
   date,
   foreignKey,
   index,
   integer,
+  jsonb,
   pgEnum,
   pgTable,
   primaryKey,
@@ -13,6 +15,15 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
+import {
+  directions,
+  modalities,
+  rotationClasses,
+  shapes,
+  takeOffs,
+  twistBands,
+} from '../../shared/domain/element.ts'
+import { pauseReasons, progressEventKinds } from '../../shared/domain/progress.ts'
 
 // Every table of club data carries club_id and puts it first in its keys and foreign keys, so
 // that rows of one club can never point at another club's rows.
@@ -20,6 +31,14 @@ import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
 export const roleEnum = pgEnum('role', roles)
 export const disciplineEnum = pgEnum('discipline', disciplines)
 export const squadLevelEnum = pgEnum('squad_level', squadLevels)
+export const directionEnum = pgEnum('direction', directions)
+export const shapeEnum = pgEnum('shape', shapes)
+export const takeOffEnum = pgEnum('take_off', takeOffs)
+export const rotationClassEnum = pgEnum('rotation_class', rotationClasses)
+export const twistBandEnum = pgEnum('twist_band', twistBands)
+export const modalityEnum = pgEnum('modality', modalities)
+export const progressEventKindEnum = pgEnum('progress_event_kind', progressEventKinds)
+export const pauseReasonEnum = pgEnum('pause_reason', pauseReasons)
 
 const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
@@ -169,4 +188,167 @@ export const passwordResets = pgTable(
     createdAt: createdAt(),
   },
   (t) => [index().on(t.userId)],
+)
+
+/**
+ * The club's catalogue. Description columns are what the director types; rotation class, twist
+ * band and the two keys are derived by shared/domain/catalogue.ts on every write and stored only
+ * so that SQL can filter and join on them.
+ */
+export const elements = pgTable(
+  'elements',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    name: text().notNull(),
+    apparatus: text().notNull(),
+    direction: directionEnum().notNull(),
+    quarterRotations: integer().notNull(),
+    twists: integer().array().notNull(),
+    shape: shapeEnum(),
+    takeOff: takeOffEnum().notNull(),
+    difficultyLetter: text(),
+    notes: text(),
+    rotationClass: rotationClassEnum().notNull(),
+    twistBand: twistBandEnum().notNull(),
+    descriptionKey: text().notNull(),
+    counterpartKey: text(),
+    templateFamily: text().notNull(),
+    /** Goes up by one whenever the progression's steps change (see element_step_maps). */
+    stepsVersion: integer().notNull().default(1),
+    createdAt: createdAt(),
+    updatedAt: createdAt(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    uniqueIndex('elements_description_idx').on(t.clubId, t.descriptionKey),
+    uniqueIndex('elements_name_idx').on(t.clubId, t.apparatus, sql`lower(${t.name})`),
+    index('elements_counterpart_idx').on(t.clubId, t.counterpartKey),
+  ],
+)
+
+/** The ordered steps of an element's progression; the last one is competition-ready. */
+export const elementSteps = pgTable(
+  'element_steps',
+  {
+    clubId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    position: integer().notNull(),
+    name: text().notNull(),
+    modality: modalityEnum().notNull(),
+    criterion: text().notNull(),
+    minDays: integer(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.elementId, t.position] }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }).onDelete('cascade'),
+  ],
+)
+
+/**
+ * When the steps of an element change while athletes are on it, the director says where each
+ * old step goes: mapping[oldIndex] = newIndex, from `fromVersion` to the next. Events keep the
+ * step index of the version they were recorded under, so history is never rewritten.
+ */
+export const elementStepMaps = pgTable(
+  'element_step_maps',
+  {
+    clubId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    fromVersion: integer().notNull(),
+    mapping: integer().array().notNull(),
+    createdAt: createdAt(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.elementId, t.fromVersion] }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }).onDelete('cascade'),
+  ],
+)
+
+export const elementPrerequisites = pgTable(
+  'element_prerequisites',
+  {
+    clubId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    requiresElementId: uuid().notNull(),
+    /** The step of the required element the athlete must have reached. */
+    stepIndex: integer().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.elementId, t.requiresElementId] }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }).onDelete('cascade'),
+    foreignKey({
+      columns: [t.clubId, t.requiresElementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }).onDelete('cascade'),
+  ],
+)
+
+/** The club's own copy of each progression template, used for elements created from now on. */
+export const progressionTemplates = pgTable(
+  'progression_templates',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    family: text().notNull(),
+    label: text().notNull(),
+    steps: jsonb().notNull(),
+    updatedAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.clubId, t.family] })],
+)
+
+/**
+ * The append-only history of an athlete's progress on an element. Nothing here is updated or
+ * deleted by the application: a mistaken event is voided by a later one (corrects_event_id).
+ */
+export const progressEvents = pgTable(
+  'progress_events',
+  {
+    clubId: uuid().notNull(),
+    id: uuid().notNull().defaultRandom(),
+    athleteId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    kind: progressEventKindEnum().notNull(),
+    stepIndex: integer(),
+    /** The element's steps version the step index refers to. */
+    stepsVersion: integer().notNull(),
+    pauseReason: pauseReasonEnum(),
+    plannedStepIndex: integer(),
+    occurredOn: date().notNull(),
+    recordedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+    coachId: text().references(() => users.id, { onDelete: 'set null' }),
+    note: text(),
+    skipReason: text(),
+    correctsEventId: uuid(),
+    /** The checks shown before saving, kept with the event. */
+    checks: jsonb().notNull().default([]),
+    flagged: boolean().notNull().default(false),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    foreignKey({
+      columns: [t.clubId, t.athleteId],
+      foreignColumns: [athletes.clubId, athletes.id],
+    }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }),
+    index('progress_events_record_idx').on(t.clubId, t.athleteId, t.elementId),
+    index('progress_events_element_idx').on(t.clubId, t.elementId),
+  ],
 )

@@ -4,6 +4,7 @@ import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Role } from '../../shared/domain/club.ts'
 import type { Database } from '../../server/db/client.ts'
+import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -30,6 +31,31 @@ async function throwawayMember(f: Fixture) {
   await addMembership(f.db.db, { clubId: f.club.id, userId: user.id, role: 'coach' })
   return user.id
 }
+const elementBody = (name = `Element ${unique()}`) => ({
+  name,
+  apparatus: `custom-${unique()}`,
+  direction: 'sideward',
+  quarterRotations: 4,
+  twists: [0],
+  shape: 'tuck',
+  takeOff: 'standing',
+})
+async function throwawayElement(f: Fixture) {
+  const element = await createElement(
+    f.db.db,
+    { clubId: f.club.id, userId: f.people.director.id, role: 'director' },
+    elementBody(),
+  )
+  return element.id
+}
+async function anyElement(f: Fixture) {
+  return (await listElements(f.db.db, f.club.id))[0]!.id
+}
+const oneStep = [
+  { name: 'Competition-ready', modality: 'routine', criterion: 'In a routine twice.' },
+]
+const readers: Role[] = ['director', 'coach', 'clinician']
+
 async function pendingInvitation(f: Fixture) {
   const res = await f.director
     .post(`/api/clubs/${f.club.id}/invitations`)
@@ -80,6 +106,69 @@ const matrix: Record<string, Row> = {
     allow: ['director'],
     ok: 204,
     request: async (f) => ({ path: `/invitations/${await pendingInvitation(f)}` }),
+  },
+  'GET /elements': { allow: readers, ok: 200, request: async () => ({ path: '/elements' }) },
+  'POST /elements': {
+    allow: ['director'],
+    ok: 201,
+    request: async () => ({ path: '/elements', body: elementBody() }),
+  },
+  'GET /elements/export': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/elements/export' }),
+  },
+  'POST /elements/import': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({
+      path: '/elements/import',
+      body: { dryRun: true, rows: [{ ...elementBody(), twists: '0', quarterRotations: '4' }] },
+    }),
+  },
+  'GET /elements/:id': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/elements/${await anyElement(f)}` }),
+  },
+  'PATCH /elements/:id': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/elements/${await throwawayElement(f)}`, body: elementBody() }),
+  },
+  'DELETE /elements/:id': {
+    allow: ['director'],
+    ok: 204,
+    request: async (f) => ({ path: `/elements/${await throwawayElement(f)}` }),
+  },
+  'PUT /elements/:id/steps': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/elements/${await throwawayElement(f)}/steps`,
+      body: { steps: oneStep },
+    }),
+  },
+  'PUT /elements/:id/prerequisites': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/elements/${await throwawayElement(f)}/prerequisites`,
+      body: { prerequisites: [] },
+    }),
+  },
+  'GET /progression-templates': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/progression-templates' }),
+  },
+  'PUT /progression-templates/:family': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({
+      path: '/progression-templates/single-salto',
+      body: { steps: oneStep },
+    }),
   },
 }
 

@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest'
 import { prepareDatabase } from '../../server/cli/bootstrap.ts'
 import { athletes, clubs, coachSquads, memberships, squads } from '../../server/db/schema.ts'
 import { demoClub } from '../../seed/demo.ts'
+import { demoClubElements } from '../../seed/demo-elements.ts'
+import { listElements } from '../../server/services/catalogue.ts'
 import { freshDatabase } from '../support/database.ts'
 
 describe('start-up preparation', () => {
@@ -48,6 +50,12 @@ describe('start-up preparation', () => {
       expect(coaches).toHaveLength(5)
       const assignments = await database.db.select().from(coachSquads)
       expect(new Set(assignments.map((a) => a.userId)).size).toBe(5)
+      // the standard catalogue plus the club's own backward elements, which have no forward mirror
+      const [club] = await database.db.select().from(clubs)
+      const catalogue = await listElements(database.db, club!.id)
+      expect(catalogue.length).toBeGreaterThanOrEqual(80)
+      const gaps = catalogue.filter((e) => e.direction === 'backward' && e.counterpartId === null)
+      expect(gaps.map((e) => e.name).sort()).toEqual(demoClubElements.map((e) => e.name).sort())
     } finally {
       await database.close()
     }
