@@ -46,6 +46,8 @@ export const clubs = pgTable('clubs', {
   id: uuid().primaryKey().defaultRandom(),
   name: text().notNull(),
   slug: text().notNull().unique(),
+  /** How many steps a pause for a lost skill proposes to step down (the brief's default: 2). */
+  lostSkillStepDown: integer().notNull().default(2),
   createdAt: createdAt(),
 })
 
@@ -350,5 +352,42 @@ export const progressEvents = pgTable(
     }),
     index('progress_events_record_idx').on(t.clubId, t.athleteId, t.elementId),
     index('progress_events_element_idx').on(t.clubId, t.elementId),
+  ],
+)
+
+/**
+ * The current state of each athlete × element record, rebuilt from progress_events by
+ * shared/domain/progress.ts in the same transaction as every event. It is a cache for the squad
+ * grid and the conflict check; the events stay the truth.
+ */
+export const progressRecords = pgTable(
+  'progress_records',
+  {
+    clubId: uuid().notNull(),
+    athleteId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    stepIndex: integer(),
+    highestStepIndex: integer(),
+    stepReachedOn: date(),
+    paused: boolean().notNull().default(false),
+    pauseReason: pauseReasonEnum(),
+    plannedStepIndex: integer(),
+    lastEventOn: date(),
+    /** The newest event of the record: a writer that saw another one is told of the conflict. */
+    lastEventId: uuid(),
+    flagged: boolean().notNull().default(false),
+    updatedAt: createdAt(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.athleteId, t.elementId] }),
+    foreignKey({
+      columns: [t.clubId, t.athleteId],
+      foreignColumns: [athletes.clubId, athletes.id],
+    }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }),
+    index('progress_records_element_idx').on(t.clubId, t.elementId),
   ],
 )

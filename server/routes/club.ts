@@ -1,9 +1,12 @@
 import { eq } from 'drizzle-orm'
+import { clubSettingsSchema } from '../../shared/schemas/clubs.ts'
 import type { AppContext } from '../context.ts'
 import { clubs, invitations, memberships, users } from '../db/schema.ts'
 import { everyRole, type ClubRoute } from './club-routes.ts'
 
-/** The club itself, and the Outbox of the local fake mail server. */
+const clubView = { id: clubs.id, name: clubs.name, lostSkillStepDown: clubs.lostSkillStepDown }
+
+/** The club itself, its settings, and the Outbox of the local fake mail server. */
 export function clubRoutes(ctx: AppContext): ClubRoute[] {
   const routes: ClubRoute[] = [
     {
@@ -12,9 +15,23 @@ export function clubRoutes(ctx: AppContext): ClubRoute[] {
       allow: everyRole,
       handler: async (req, res) => {
         const [club] = await ctx.db
-          .select({ id: clubs.id, name: clubs.name })
+          .select(clubView)
           .from(clubs)
           .where(eq(clubs.id, req.club.clubId))
+        res.json({ ...club, role: req.club.role })
+      },
+    },
+    {
+      method: 'patch',
+      path: '/settings',
+      allow: ['director'],
+      handler: async (req, res) => {
+        const settings = clubSettingsSchema.parse(req.body)
+        const [club] = await ctx.db
+          .update(clubs)
+          .set(settings)
+          .where(eq(clubs.id, req.club.clubId))
+          .returning(clubView)
         res.json({ ...club, role: req.club.role })
       },
     },

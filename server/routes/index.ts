@@ -1,10 +1,18 @@
 import type { AppContext } from '../context.ts'
+import { athleteRoutes } from './athletes.ts'
 import { catalogueRoutes } from './catalogue.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
+import { squadRoutes } from './squads.ts'
 
 /** Every route under /api/clubs/:clubId. Add a resource's routes here. */
 export function allClubRoutes(ctx: AppContext): ClubRoute[] {
-  return [...clubRoutes(ctx), ...memberRoutes(ctx), ...catalogueRoutes(ctx)]
+  return [
+    ...clubRoutes(ctx),
+    ...memberRoutes(ctx),
+    ...catalogueRoutes(ctx),
+    ...squadRoutes(ctx),
+    ...athleteRoutes(ctx),
+  ]
 }

@@ -38,6 +38,7 @@ import {
   progressionTemplates,
 } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
+import { recomputeElementRecords } from './progress.ts'
 
 type ElementRow = typeof elements.$inferSelect
 
@@ -370,6 +371,7 @@ export async function replaceSteps(
       .update(elements)
       .set({ stepsVersion: current.stepsVersion + 1, updatedAt: new Date() })
       .where(and(eq(elements.clubId, access.clubId), eq(elements.id, id)))
+    if (athletes > 0) await recomputeElementRecords(tx, access.clubId, id)
     // A prerequisite may point past the end of a shortened progression: keep it at the last step.
     await tx
       .update(elementPrerequisites)
@@ -454,16 +456,14 @@ export async function replacePrerequisites(
         and(eq(elementPrerequisites.clubId, access.clubId), eq(elementPrerequisites.elementId, id)),
       )
     if (list.length > 0) {
-      await tx
-        .insert(elementPrerequisites)
-        .values(
-          list.map((p) => ({
-            clubId: access.clubId,
-            elementId: id,
-            requiresElementId: p.elementId,
-            stepIndex: p.stepIndex,
-          })),
-        )
+      await tx.insert(elementPrerequisites).values(
+        list.map((p) => ({
+          clubId: access.clubId,
+          elementId: id,
+          requiresElementId: p.elementId,
+          stepIndex: p.stepIndex,
+        })),
+      )
     }
   })
   return getElement(db, access.clubId, id)
@@ -596,16 +596,14 @@ export async function updateTemplate(
  * transaction: a few multi-row inserts, not one per element.
  */
 export async function installStandardCatalogue(tx: DbOrTx, clubId: string) {
-  await tx
-    .insert(progressionTemplates)
-    .values(
-      Object.values(standardTemplates).map((t) => ({
-        clubId,
-        family: t.family,
-        label: t.label,
-        steps: t.steps,
-      })),
-    )
+  await tx.insert(progressionTemplates).values(
+    Object.values(standardTemplates).map((t) => ({
+      clubId,
+      family: t.family,
+      label: t.label,
+      steps: t.steps,
+    })),
+  )
   const inserted = await tx
     .insert(elements)
     .values(

@@ -1,9 +1,22 @@
-import { squadInputSchema, type SquadInput } from '../../shared/schemas/squads.ts'
+import { and, count, eq, inArray, isNull } from 'drizzle-orm'
+import { squadInputSchema, type SquadInput, type SquadView } from '../../shared/schemas/squads.ts'
+import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { coachSquads, squads } from '../db/schema.ts'
+import { athletes, coachSquads, memberships, squads } from '../db/schema.ts'
+import { AppError, notFound } from '../http/errors.ts'
+import { assertCanReadSquad, readableSquadIds } from './scope.ts'
 
 export async function createSquad(db: DbOrTx, clubId: string, input: SquadInput) {
   const values = squadInputSchema.parse(input)
+  const clash = await db
+    .select({ id: squads.id })
+    .from(squads)
+    .where(and(eq(squads.clubId, clubId), eq(squads.name, values.name)))
+  if (clash.length > 0) {
+    throw new AppError(409, 'duplicate_name', `There is already a squad called ${values.name}.`, [
+      { path: 'name', message: 'Another squad has this name.' },
+    ])
+  }
   const [squad] = await db
     .insert(squads)
     .values({ ...values, clubId })
@@ -14,4 +27,107 @@ export async function createSquad(db: DbOrTx, clubId: string, input: SquadInput)
 /** Gives a coach (already a member of the club) access to a squad. */
 export async function assignCoach(db: DbOrTx, clubId: string, squadId: string, userId: string) {
   await db.insert(coachSquads).values({ clubId, squadId, userId }).onConflictDoNothing()
+}
+
+/** The squads the person may see, with their coaches and number of active athletes. */
+export async function listSquads(db: DbOrTx, access: ClubAccess): Promise<SquadView[]> {
+  const readable = await readableSquadIds(db, access)
+  if (readable !== 'all' && readable.length === 0) return []
+  const rows = await db
+    .select()
+    .from(squads)
+    .where(
+      and(
+        eq(squads.clubId, access.clubId),
+        readable === 'all' ? undefined : inArray(squads.id, readable),
+      ),
+    )
+    .orderBy(squads.name)
+  const coaches = await db.select().from(coachSquads).where(eq(coachSquads.clubId, access.clubId))
+  const counts = await db
+    .select({ squadId: athletes.squadId, n: count() })
+    .from(athletes)
+    .where(and(eq(athletes.clubId, access.clubId), isNull(athletes.archivedAt)))
+    .groupBy(athletes.squadId)
+  return rows.map((s) => ({
+    id: s.id,
+    clubId: s.clubId,
+    name: s.name,
+    level: s.level,
+    discipline: s.discipline,
+    coachIds: coaches.filter((c) => c.squadId === s.id).map((c) => c.userId),
+    athleteCount: counts.find((c) => c.squadId === s.id)?.n ?? 0,
+  }))
+}
+
+export async function getSquad(db: DbOrTx, access: ClubAccess, squadId: string) {
+  await assertCanReadSquad(db, access, squadId)
+  const [squad] = (await listSquads(db, { ...access, role: 'director' })).filter(
+    (s) => s.id === squadId,
+  )
+  return squad!
+}
+
+export async function updateSquad(
+  db: DbOrTx,
+  access: ClubAccess,
+  squadId: string,
+  input: SquadInput,
+) {
+  const values = squadInputSchema.parse(input)
+  const clash = await db
+    .select({ id: squads.id })
+    .from(squads)
+    .where(and(eq(squads.clubId, access.clubId), eq(squads.name, values.name)))
+  if (clash.some((c) => c.id !== squadId)) {
+    throw new AppError(409, 'duplicate_name', `There is already a squad called ${values.name}.`, [
+      { path: 'name', message: 'Another squad has this name.' },
+    ])
+  }
+  const updated = await db
+    .update(squads)
+    .set(values)
+    .where(and(eq(squads.clubId, access.clubId), eq(squads.id, squadId)))
+    .returning()
+  if (updated.length === 0) throw notFound('No such squad in this club.')
+  return getSquad(db, access, squadId)
+}
+
+/** Replaces the squad's coaches; each must be a coach of the club. */
+export async function setSquadCoaches(
+  db: DbOrTx,
+  access: ClubAccess,
+  squadId: string,
+  userIds: string[],
+) {
+  await db.transaction(async (tx) => {
+    await assertCanReadSquad(tx, access, squadId)
+    const unique = [...new Set(userIds)]
+    if (unique.length > 0) {
+      const members = await tx
+        .select({ userId: memberships.userId, role: memberships.role })
+        .from(memberships)
+        .where(and(eq(memberships.clubId, access.clubId), inArray(memberships.userId, unique)))
+      const notCoaches = unique.filter(
+        (id) => members.find((m) => m.userId === id)?.role !== 'coach',
+      )
+      if (notCoaches.length > 0) {
+        throw new AppError(
+          400,
+          'invalid_input',
+          'Only the club’s coaches can be assigned to a squad.',
+          [{ path: 'userIds', message: 'Only the club’s coaches can be assigned to a squad.' }],
+        )
+      }
+    }
+    await tx
+      .delete(coachSquads)
+      .where(and(eq(coachSquads.clubId, access.clubId), eq(coachSquads.squadId, squadId)))
+    if (unique.length > 0) {
+      await tx
+        .insert(coachSquads)
+        .values(unique.map((userId) => ({ clubId: access.clubId, squadId, userId })))
+    }
+  })
+  return getSquad(db, access, squadId)
 }

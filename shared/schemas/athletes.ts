@@ -13,6 +13,45 @@ export const athleteInputSchema = z.object({
     .min(earliestBirthYear, `The birth year must be ${earliestBirthYear} or later.`)
     .refine((year) => year <= new Date().getFullYear(), 'The birth year cannot be in the future.'),
   squadId: z.uuid('Choose a squad.'),
-  discipline: z.enum(disciplines),
+  discipline: z.enum(disciplines, `Choose a discipline: ${disciplines.join(', ')}.`),
 })
 export type AthleteInput = z.infer<typeof athleteInputSchema>
+
+/** PATCH /athletes/:athleteId: any subset; moving squads keeps the history. */
+export const athleteUpdateSchema = athleteInputSchema.partial().extend({
+  archived: z.boolean().optional(),
+})
+export type AthleteUpdate = z.infer<typeof athleteUpdateSchema>
+
+export const athleteViewSchema = athleteInputSchema.extend({
+  id: z.uuid(),
+  squadName: z.string(),
+  archived: z.boolean(),
+})
+export type AthleteView = z.infer<typeof athleteViewSchema>
+
+export const athleteListQuerySchema = z.object({
+  squadId: z.uuid().optional(),
+  includeArchived: z
+    .enum(['true', 'false'])
+    .optional()
+    .transform((v) => v === 'true'),
+})
+
+/** The roster CSV columns, in file order; the squad is named, not referenced by id. */
+export const rosterCsvColumns = [
+  'givenName',
+  'familyName',
+  'birthYear',
+  'squad',
+  'discipline',
+] as const
+
+/** POST /athletes/import: rows keyed by the CSV header; all or nothing. */
+export const rosterImportSchema = z.object({
+  rows: z
+    .array(z.record(z.string(), z.unknown()))
+    .min(1, 'The file has no rows.')
+    .max(5000, 'At most 5000 rows at once.'),
+  dryRun: z.boolean().default(false),
+})

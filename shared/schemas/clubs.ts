@@ -8,3 +8,13 @@ export const clubInputSchema = z.object({
     .max(60),
 })
 export type ClubInput = z.infer<typeof clubInputSchema>
+
+/** PATCH /settings (directors). */
+export const clubSettingsSchema = z.object({
+  lostSkillStepDown: z
+    .number()
+    .int('Enter a whole number of steps.')
+    .min(0, 'Use 0 or more steps.')
+    .max(10, 'Use at most 10 steps.'),
+})
+export type ClubSettings = z.infer<typeof clubSettingsSchema>

@@ -13,3 +13,14 @@ export const squadSchema = squadInputSchema.extend({
   clubId: z.uuid(),
 })
 export type Squad = z.infer<typeof squadSchema>
+
+export const squadViewSchema = squadSchema.extend({
+  coachIds: z.array(z.string()),
+  athleteCount: z.number().int().min(0),
+})
+export type SquadView = z.infer<typeof squadViewSchema>
+
+/** PUT /squads/:squadId/coaches: the whole list of coaches assigned to the squad. */
+export const squadCoachesSchema = z.object({
+  userIds: z.array(z.string().min(1)).max(50),
+})

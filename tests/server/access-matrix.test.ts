@@ -4,6 +4,7 @@ import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Role } from '../../shared/domain/club.ts'
 import type { Database } from '../../server/db/client.ts'
+import { createAthlete } from '../../server/services/athletes.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -51,6 +52,24 @@ async function throwawayElement(f: Fixture) {
 async function anyElement(f: Fixture) {
   return (await listElements(f.db.db, f.club.id))[0]!.id
 }
+async function athleteInSquad(f: Fixture) {
+  const a = await createAthlete(f.db.db, f.club.id, {
+    givenName: 'Matrix',
+    familyName: unique(),
+    birthYear: 2012,
+    squadId: f.squad.id,
+    discipline: 'artistic-women',
+  })
+  return a.id
+}
+const stepEvent = async (f: Fixture) => ({
+  elementId: await anyElement(f),
+  kind: 'step',
+  stepIndex: 0,
+  occurredOn: '2026-11-01',
+  expectedLastEventId: null,
+})
+const writers: Role[] = ['director', 'coach']
 const oneStep = [
   { name: 'Competition-ready', modality: 'routine', criterion: 'In a routine twice.' },
 ]
@@ -68,6 +87,11 @@ const matrix: Record<string, Row> = {
     allow: ['director', 'coach', 'clinician', 'board'],
     ok: 200,
     request: async () => ({ path: '/' }),
+  },
+  'PATCH /settings': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({ path: '/settings', body: { lostSkillStepDown: 2 } }),
   },
   'GET /outbox': { allow: ['director'], ok: 200, request: async () => ({ path: '/outbox' }) },
   'GET /members': { allow: ['director'], ok: 200, request: async () => ({ path: '/members' }) },
@@ -169,6 +193,126 @@ const matrix: Record<string, Row> = {
       path: '/progression-templates/single-salto',
       body: { steps: oneStep },
     }),
+  },
+  'GET /squads': { allow: readers, ok: 200, request: async () => ({ path: '/squads' }) },
+  'POST /squads': {
+    allow: ['director'],
+    ok: 201,
+    request: async () => ({
+      path: '/squads',
+      body: { name: `Squad ${unique()}`, level: 'junior', discipline: 'tumbling' },
+    }),
+  },
+  'GET /squads/:squadId': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/squads/${f.squad.id}` }),
+  },
+  'PATCH /squads/:squadId': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/squads/${f.squad.id}`,
+      body: { name: 'Squad A', level: 'junior', discipline: 'artistic-women' },
+    }),
+  },
+  'PUT /squads/:squadId/coaches': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/squads/${f.squad.id}/coaches`,
+      body: { userIds: [f.people.coach.id] },
+    }),
+  },
+  'GET /squads/:squadId/grid': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/squads/${f.squad.id}/grid` }),
+  },
+  'GET /athletes': { allow: readers, ok: 200, request: async () => ({ path: '/athletes' }) },
+  'POST /athletes': {
+    allow: writers,
+    ok: 201,
+    request: async (f) => ({
+      path: '/athletes',
+      body: {
+        givenName: 'New',
+        familyName: unique(),
+        birthYear: 2013,
+        squadId: f.squad.id,
+        discipline: 'artistic-women',
+      },
+    }),
+  },
+  'POST /athletes/import': {
+    allow: writers,
+    ok: 200,
+    request: async () => ({
+      path: '/athletes/import',
+      body: {
+        dryRun: true,
+        rows: [
+          {
+            givenName: 'Row',
+            familyName: unique(),
+            birthYear: '2012',
+            squad: 'Squad A',
+            discipline: '',
+          },
+        ],
+      },
+    }),
+  },
+  'GET /athletes/export': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/athletes/export' }),
+  },
+  'GET /athletes/:athleteId': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/athletes/${await athleteInSquad(f)}` }),
+  },
+  'PATCH /athletes/:athleteId': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/athletes/${await athleteInSquad(f)}`,
+      body: { givenName: 'Renamed' },
+    }),
+  },
+  'GET /athletes/:athleteId/records': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/athletes/${await athleteInSquad(f)}/records` }),
+  },
+  'GET /athletes/:athleteId/records/:elementId': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/athletes/${await athleteInSquad(f)}/records/${await anyElement(f)}`,
+    }),
+  },
+  'POST /athletes/:athleteId/events/check': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/athletes/${await athleteInSquad(f)}/events/check`,
+      body: await stepEvent(f),
+    }),
+  },
+  'POST /athletes/:athleteId/events': {
+    allow: writers,
+    ok: 201,
+    request: async (f) => ({
+      path: `/athletes/${await athleteInSquad(f)}/events`,
+      body: await stepEvent(f),
+    }),
+  },
+  'GET /missing-skills': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/missing-skills' }),
   },
 }
 

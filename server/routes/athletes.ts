@@ -1,0 +1,152 @@
+import { z } from 'zod'
+import { athleteListQuerySchema, rosterImportSchema } from '../../shared/schemas/athletes.ts'
+import { progressEventInputSchema } from '../../shared/schemas/progress.ts'
+import type { AppContext } from '../context.ts'
+import { AppError } from '../http/errors.ts'
+import {
+  addAthlete,
+  exportRoster,
+  getAthlete,
+  importRoster,
+  listAthletes,
+  updateAthlete,
+} from '../services/athletes.ts'
+import {
+  athleteRecords,
+  missingSkills,
+  previewEvent,
+  recordDetail,
+  recordEvent,
+} from '../services/progress.ts'
+import type { ClubRoute } from './club-routes.ts'
+
+const athleteParams = z.object({ athleteId: z.uuid('No such athlete.') })
+const recordParams = athleteParams.extend({ elementId: z.uuid('No such element.') })
+const readers = ['director', 'coach', 'clinician'] as const
+const writers = ['director', 'coach'] as const
+
+/** Athletes, the roster CSV, progress events and records, and the coaches' missing-skills list. */
+export function athleteRoutes(ctx: AppContext): ClubRoute[] {
+  return [
+    {
+      method: 'get',
+      path: '/athletes',
+      allow: readers,
+      handler: async (req, res) =>
+        res.json(await listAthletes(ctx.db, req.club, athleteListQuerySchema.parse(req.query))),
+    },
+    {
+      method: 'post',
+      path: '/athletes',
+      allow: writers,
+      handler: async (req, res) =>
+        res.status(201).json(await addAthlete(ctx.db, req.club, req.body)),
+    },
+    {
+      method: 'post',
+      path: '/athletes/import',
+      allow: writers,
+      handler: async (req, res) => {
+        const { rows, dryRun } = rosterImportSchema.parse(req.body)
+        const result = await importRoster(ctx.db, req.club, rows, dryRun)
+        if (!dryRun && !result.valid) {
+          throw new AppError(
+            422,
+            'invalid_rows',
+            `${new Set(result.errors.map((e) => e.row)).size} rows have problems: nothing was imported.`,
+            result.errors.map((e) => ({ path: `rows.${e.row}.${e.field}`, message: e.message })),
+            { rows: result.errors },
+          )
+        }
+        res.status(dryRun ? 200 : 201).json(result)
+      },
+    },
+    {
+      method: 'get',
+      path: '/athletes/export',
+      allow: readers,
+      handler: async (req, res) => {
+        const { squadId } = athleteListQuerySchema.parse(req.query)
+        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
+        res.setHeader('Content-Disposition', 'attachment; filename="roster.csv"')
+        res.send(await exportRoster(ctx.db, req.club, squadId))
+      },
+    },
+    {
+      method: 'get',
+      path: '/athletes/:athleteId',
+      allow: readers,
+      handler: async (req, res) =>
+        res.json(await getAthlete(ctx.db, req.club, athleteParams.parse(req.params).athleteId)),
+    },
+    {
+      method: 'patch',
+      path: '/athletes/:athleteId',
+      allow: writers,
+      handler: async (req, res) =>
+        res.json(
+          await updateAthlete(
+            ctx.db,
+            req.club,
+            athleteParams.parse(req.params).athleteId,
+            req.body,
+          ),
+        ),
+    },
+    {
+      method: 'get',
+      path: '/athletes/:athleteId/records',
+      allow: readers,
+      handler: async (req, res) =>
+        res.json(await athleteRecords(ctx.db, req.club, athleteParams.parse(req.params).athleteId)),
+    },
+    {
+      method: 'get',
+      path: '/athletes/:athleteId/records/:elementId',
+      allow: readers,
+      handler: async (req, res) => {
+        const { athleteId, elementId } = recordParams.parse(req.params)
+        res.json(await recordDetail(ctx.db, req.club, athleteId, elementId))
+      },
+    },
+    {
+      method: 'post',
+      path: '/athletes/:athleteId/events/check',
+      allow: writers,
+      handler: async (req, res) =>
+        res.json(
+          await previewEvent(
+            ctx.db,
+            req.club,
+            athleteParams.parse(req.params).athleteId,
+            progressEventInputSchema.parse(req.body),
+          ),
+        ),
+    },
+    {
+      method: 'post',
+      path: '/athletes/:athleteId/events',
+      allow: writers,
+      handler: async (req, res) =>
+        res
+          .status(201)
+          .json(
+            await recordEvent(
+              ctx.db,
+              req.club,
+              athleteParams.parse(req.params).athleteId,
+              progressEventInputSchema.parse(req.body),
+            ),
+          ),
+    },
+    {
+      method: 'get',
+      path: '/missing-skills',
+      allow: readers,
+      handler: async (req, res) => {
+        const { squadId } = z.object({ squadId: z.uuid().optional() }).parse(req.query)
+        res.json(await missingSkills(ctx.db, req.club, { squadId }))
+      },
+    },
+  ]
+}
