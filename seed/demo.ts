@@ -1,15 +1,17 @@
 import { uniformInt } from 'pure-rand/distribution/uniformInt'
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
 import type { Discipline, Role, SquadLevel } from '../shared/domain/club.ts'
-import { and, eq } from 'drizzle-orm'
+import { and, count, eq } from 'drizzle-orm'
 import type { Db, DbOrTx } from '../server/db/client.ts'
-import { memberships } from '../server/db/schema.ts'
+import { athletes, elementSteps, memberships } from '../server/db/schema.ts'
 import { createAthlete } from '../server/services/athletes.ts'
-import { createElement } from '../server/services/catalogue.ts'
+import { createElement, listElements } from '../server/services/catalogue.ts'
+import { appendHistory } from '../server/services/progress.ts'
 import { countClubs, createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { assignCoach, createSquad } from '../server/services/squads.ts'
 import { demoClubElements } from './demo-elements.ts'
+import { demoHistory } from './demo-progress.ts'
 import { familyNames, givenNames } from './names.ts'
 
 /** The one password of every demo sign-in; shown by `npm start` and in the README. */
@@ -125,12 +127,14 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       }
     }
 
+    const userIds = new Map<string, string>()
     for (const person of demoPeople) {
       const user = await createUser(tx, {
         email: person.email,
         name: person.name,
         password: demoPassword,
       })
+      userIds.set(person.email, user.id)
       const window =
         person.role === 'clinician'
           ? {
@@ -147,7 +151,14 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
     for (const element of demoClubElements) {
       await createElement(tx, { clubId: club.id, userId: director, role: 'director' }, element)
     }
-    return { club, squads: squadIds.size, athletes: athleteCount, people: demoPeople.length }
+    const history = await demoProgress(tx, club.id, today, rng, userIds, squadIds)
+    return {
+      club,
+      squads: squadIds.size,
+      athletes: athleteCount,
+      people: demoPeople.length,
+      events: history.events,
+    }
   })
 }
 
@@ -163,4 +174,44 @@ async function findDirector(db: DbOrTx, clubId: string) {
     .from(memberships)
     .where(and(eq(memberships.clubId, clubId), eq(memberships.role, 'director')))
   return row!.userId
+}
+
+/** Eighteen months of events for the demo athletes, loaded through the progress service. */
+async function demoProgress(
+  db: DbOrTx,
+  clubId: string,
+  today: Date,
+  rng: ReturnType<typeof xoroshiro128plus>,
+  userIds: Map<string, string>,
+  squadIds: Map<string, string>,
+) {
+  const catalogue = await listElements(db, clubId)
+  const counts = await db
+    .select({ elementId: elementSteps.elementId, n: count() })
+    .from(elementSteps)
+    .where(eq(elementSteps.clubId, clubId))
+    .groupBy(elementSteps.elementId)
+  const stepCount = new Map(counts.map((c) => [c.elementId, c.n]))
+  const roster = await db
+    .select()
+    .from(athletes)
+    .where(eq(athletes.clubId, clubId))
+    .orderBy(athletes.familyName, athletes.givenName)
+  const squadName = new Map([...squadIds].map(([name, id]) => [id, name]))
+  const coachOf = (name: string) => {
+    const coach = demoPeople.find((p) => p.squads?.includes(name))
+    return userIds.get(coach!.email)!
+  }
+  const history = demoHistory(
+    rng,
+    today,
+    roster.map((a) => ({
+      id: a.id,
+      squadName: squadName.get(a.squadId)!,
+      level: demoSquads.find((s) => s.name === squadName.get(a.squadId))!.level,
+    })),
+    catalogue.map((e) => ({ ...e, stepCount: stepCount.get(e.id) ?? 1 })),
+    coachOf,
+  )
+  return appendHistory(db, clubId, history)
 }

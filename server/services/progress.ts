@@ -613,3 +613,140 @@ export async function missingSkills(
       a.athleteName.localeCompare(b.athleteName),
   )
 }
+
+/** One event of a history loaded in bulk (the demo's past, an import of another system's log). */
+export interface HistoryEvent {
+  athleteId: string
+  elementId: string
+  coachId: string
+  change: ProposedEvent & { plannedStepIndex?: number }
+  note?: string
+}
+
+/**
+ * Appends a whole history at once, in the caller's transaction: each record's events are checked
+ * in date order by the same rules as a single event (prerequisites aside: they depend on the
+ * order records are loaded in), then inserted and the records rebuilt, in a few bulk statements.
+ */
+export async function appendHistory(db: DbOrTx, clubId: string, history: HistoryEvent[]) {
+  const elementRows = await db
+    .select({ id: elements.id, stepsVersion: elements.stepsVersion })
+    .from(elements)
+    .where(eq(elements.clubId, clubId))
+  const version = new Map(elementRows.map((e) => [e.id, e.stepsVersion]))
+  const stepRows = await db
+    .select({
+      elementId: elementSteps.elementId,
+      name: elementSteps.name,
+      minDays: elementSteps.minDays,
+      position: elementSteps.position,
+    })
+    .from(elementSteps)
+    .where(eq(elementSteps.clubId, clubId))
+    .orderBy(asc(elementSteps.position))
+  const steps = new Map<string, { name: string; minDays?: number }[]>()
+  for (const s of stepRows) {
+    const list = steps.get(s.elementId) ?? []
+    list.push({ name: s.name, ...(s.minDays === null ? {} : { minDays: s.minDays }) })
+    steps.set(s.elementId, list)
+  }
+  const [club] = await db
+    .select({ stepDown: clubs.lostSkillStepDown })
+    .from(clubs)
+    .where(eq(clubs.id, clubId))
+
+  const byRecord = new Map<string, HistoryEvent[]>()
+  for (const event of history) {
+    if (!version.has(event.elementId))
+      throw notFound('An event names an element that is not in the catalogue.')
+    const key = `${event.athleteId}|${event.elementId}`
+    byRecord.set(key, [...(byRecord.get(key) ?? []), event])
+  }
+  const rows: (typeof progressEvents.$inferInsert)[] = []
+  const records: (typeof progressRecords.$inferInsert)[] = []
+  let sequence = 0
+  const base = Date.now() - history.length * 1000
+  for (const events of byRecord.values()) {
+    events.sort((a, b) => a.change.occurredOn.localeCompare(b.change.occurredOn))
+    const domain: ProgressEvent[] = []
+    let flagged = false
+    for (const event of events) {
+      const { change } = event
+      const id = crypto.randomUUID()
+      const recordedAt = new Date(base + sequence++ * 1000)
+      const current = replayRecord(domain)
+      const checks = checkEvent(current, change, {
+        steps: steps.get(event.elementId) ?? [],
+        reachedCurrentStepOn: current.stepReachedOn,
+        lostSkillStepDown: club?.stepDown,
+      })
+      const planned =
+        change.kind === 'pause'
+          ? (change.plannedStepIndex ??
+            checks.find((c) => c.proposedStepIndex !== undefined)?.proposedStepIndex)
+          : undefined
+      const meta = {
+        id,
+        occurredOn: change.occurredOn,
+        recordedAt: recordedAt.toISOString(),
+        coachId: event.coachId,
+      }
+      domain.push(
+        change.kind === 'step'
+          ? { ...meta, kind: 'step', stepIndex: change.stepIndex }
+          : change.kind === 'pause'
+            ? {
+                ...meta,
+                kind: 'pause',
+                reason: change.reason,
+                ...(planned === undefined ? {} : { plannedStepIndex: planned }),
+              }
+            : { ...meta, kind: 'resume' },
+      )
+      rows.push({
+        clubId,
+        id,
+        athleteId: event.athleteId,
+        elementId: event.elementId,
+        kind: change.kind,
+        stepIndex: change.kind === 'step' ? change.stepIndex : null,
+        stepsVersion: version.get(event.elementId)!,
+        pauseReason: change.kind === 'pause' ? change.reason : null,
+        plannedStepIndex: planned ?? null,
+        occurredOn: change.occurredOn,
+        recordedAt,
+        coachId: event.coachId,
+        note: event.note ?? null,
+        skipReason: change.skipReason ?? null,
+        checks,
+        flagged: checks.some((c) => c.code !== 'lost-skill-step-down'),
+      })
+      flagged ||= rows.at(-1)!.flagged === true
+    }
+    const record = replayRecord(domain)
+    const first = events[0]!
+    records.push({
+      clubId,
+      athleteId: first.athleteId,
+      elementId: first.elementId,
+      stepIndex: record.stepIndex,
+      highestStepIndex: record.highestStepIndex,
+      stepReachedOn: record.stepReachedOn,
+      paused: record.paused,
+      pauseReason: record.pauseReason,
+      plannedStepIndex: record.plannedStepIndex,
+      lastEventOn: record.lastEventOn,
+      lastEventId: domain.at(-1)!.id,
+      flagged,
+    })
+  }
+  for (let i = 0; i < rows.length; i += 1000)
+    await db.insert(progressEvents).values(rows.slice(i, i + 1000))
+  for (let i = 0; i < records.length; i += 1000) {
+    await db
+      .insert(progressRecords)
+      .values(records.slice(i, i + 1000))
+      .onConflictDoNothing()
+  }
+  return { events: rows.length, records: records.length }
+}

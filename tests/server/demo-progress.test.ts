@@ -1,0 +1,93 @@
+import { and, count, eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Database } from '../../server/db/client.ts'
+import {
+  athletes,
+  elements,
+  elementSteps,
+  progressEvents,
+  progressRecords,
+  squads,
+} from '../../server/db/schema.ts'
+import { prepareDatabase } from '../../server/cli/bootstrap.ts'
+import { freshDatabase } from '../support/database.ts'
+
+// The demo's made-up history must show what the product is for: one squad whose forward program
+// trails, one balanced, paused records and flagged skips.
+
+let database: Database & { url: string }
+beforeAll(async () => {
+  database = await freshDatabase()
+  await prepareDatabase(database.url, { today: new Date('2026-12-01T12:00:00Z') })
+})
+afterAll(() => database.close())
+
+async function balanceBySquad() {
+  const rows = await database.db
+    .select({
+      squad: squads.name,
+      direction: elements.direction,
+      stepIndex: progressRecords.stepIndex,
+      elementId: elements.id,
+    })
+    .from(progressRecords)
+    .innerJoin(
+      athletes,
+      and(eq(athletes.clubId, progressRecords.clubId), eq(athletes.id, progressRecords.athleteId)),
+    )
+    .innerJoin(squads, and(eq(squads.clubId, athletes.clubId), eq(squads.id, athletes.squadId)))
+    .innerJoin(
+      elements,
+      and(eq(elements.clubId, progressRecords.clubId), eq(elements.id, progressRecords.elementId)),
+    )
+  const counts = new Map(
+    (
+      await database.db
+        .select({ id: elementSteps.elementId, n: count() })
+        .from(elementSteps)
+        .groupBy(elementSteps.elementId)
+    ).map((c) => [c.id, c.n]),
+  )
+  const sums = new Map<string, { forward: number; backward: number }>()
+  for (const r of rows) {
+    const s = sums.get(r.squad) ?? { forward: 0, backward: 0 }
+    const p = r.stepIndex === null ? 0 : (r.stepIndex + 1) / counts.get(r.elementId)!
+    if (r.direction === 'forward') s.forward += p
+    if (r.direction === 'backward') s.backward += p
+    sums.set(r.squad, s)
+  }
+  return new Map([...sums].map(([squad, s]) => [squad, s.forward / s.backward]))
+}
+
+describe('the demo club’s history', () => {
+  it('spans about 18 months', async () => {
+    const events = await database.db.select({ on: progressEvents.occurredOn }).from(progressEvents)
+    expect(events.length).toBeGreaterThan(1000)
+    const dates = events.map((e) => e.on).sort()
+    expect(dates[0]! < '2025-08-01').toBe(true)
+    expect(dates.at(-1)! <= '2026-12-01').toBe(true)
+  })
+
+  it('has one squad whose forward program clearly trails and one that is balanced', async () => {
+    const ratio = await balanceBySquad()
+    expect(ratio.get('Falcons')!).toBeLessThan(0.5)
+    expect(ratio.get('Kites')!).toBeGreaterThan(0.85)
+  })
+
+  it('has paused records for a lost skill and an injury, and flagged skips', async () => {
+    const paused = await database.db
+      .select()
+      .from(progressRecords)
+      .where(eq(progressRecords.paused, true))
+    expect(paused.map((p) => p.pauseReason).sort()).toEqual(
+      expect.arrayContaining(['injury', 'lost-skill']),
+    )
+    const lost = paused.find((p) => p.pauseReason === 'lost-skill')!
+    expect(lost.plannedStepIndex).toBe(lost.stepIndex! - 2)
+    const flagged = await database.db
+      .select({ n: count() })
+      .from(progressEvents)
+      .where(eq(progressEvents.flagged, true))
+    expect(flagged[0]!.n).toBeGreaterThan(0)
+  })
+})
