@@ -11,6 +11,8 @@ declare module 'vue-router' {
     roles?: Role[]
     /** Needs the local fake mail server (the Outbox). */
     fakeMail?: boolean
+    /** The navigation entry to highlight, when it is not the route's own name. */
+    nav?: string
   }
 }
 
@@ -50,6 +52,42 @@ export const routes: RouteRecordRaw[] = [
     name: 'members',
     component: () => import('@/views/MembersView.vue'),
     meta: { title: 'Members', roles: ['director'] },
+  },
+  {
+    path: '/catalogue',
+    name: 'catalogue',
+    component: () => import('@/views/CatalogueView.vue'),
+    meta: { title: 'Catalogue', roles: ['director', 'coach', 'clinician'] },
+  },
+  {
+    path: '/catalogue/templates',
+    name: 'catalogue-templates',
+    component: () => import('@/views/CatalogueTemplatesView.vue'),
+    meta: {
+      nav: 'catalogue',
+      title: 'Progression templates',
+      roles: ['director', 'coach', 'clinician'],
+    },
+  },
+  {
+    path: '/catalogue/new',
+    name: 'element-new',
+    component: () => import('@/views/ElementFormView.vue'),
+    meta: { nav: 'catalogue', title: 'New element', roles: ['director'] },
+  },
+  {
+    path: '/catalogue/:id/edit',
+    name: 'element-edit',
+    component: () => import('@/views/ElementFormView.vue'),
+    props: true,
+    meta: { nav: 'catalogue', title: 'Edit element', roles: ['director'] },
+  },
+  {
+    path: '/catalogue/:id',
+    name: 'element',
+    component: () => import('@/views/ElementView.vue'),
+    props: true,
+    meta: { nav: 'catalogue', title: 'Element', roles: ['director', 'coach', 'clinician'] },
   },
   {
     path: '/outbox',

@@ -14,6 +14,10 @@ export interface NavItem {
 export function navigationItems(me: Me | null, membership: MembershipView | null): NavItem[] {
   if (!me || !membership || !membership.accessOpen) return []
   const items: NavItem[] = [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
+  // Board members see aggregates only; the catalogue is the working tool of the gym floor.
+  if (membership.role !== 'board') {
+    items.push({ key: 'catalogue', label: 'Catalogue', to: { name: 'catalogue' } })
+  }
   if (membership.role === 'director') {
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
     if (me.fakeMail) items.push({ key: 'outbox', label: 'Outbox', to: { name: 'outbox' } })

@@ -1,23 +1,6 @@
-import { expect, test, type Page } from '@playwright/test'
+import { expect, test } from '@playwright/test'
 import { screenshot } from './support.ts'
-
-const password = 'twofold-demo-2026'
-
-async function signIn(page: Page, email: string) {
-  await page.goto('/sign-in')
-  await page.getByLabel('E-mail').fill(email)
-  await page.getByLabel('Password').fill(password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
-}
-
-async function signOut(page: Page) {
-  await page.getByRole('button', { name: /^Account of/ }).click()
-  await page.getByText('Sign out').click()
-  await expect(page).toHaveURL(/\/sign-in/)
-}
-
-const mainNav = (page: Page) => page.getByRole('navigation', { name: 'Main' }).first()
+import { mainNav, signIn, signOut } from './support-auth.ts'
 
 test('a signed-out visitor is sent to sign-in', async ({ page }) => {
   await page.goto('/members')

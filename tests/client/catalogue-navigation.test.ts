@@ -1,0 +1,43 @@
+import { describe, expect, it } from 'vitest'
+import type { Role } from '@shared/domain/club'
+import type { Me, MembershipView } from '@shared/schemas/auth'
+import { routes } from '@/router'
+import { navigationItems } from '@/router/navigation'
+
+function as(role: Role): [Me, MembershipView] {
+  const membership: MembershipView = {
+    clubId: '11111111-1111-4111-8111-111111111111',
+    clubName: 'Demo club',
+    role,
+    accessStartsOn: null,
+    accessEndsOn: null,
+    accessOpen: true,
+  }
+  const me: Me = {
+    user: { id: 'u1', email: `${role}@demo.example`, name: 'Sam' },
+    memberships: [membership],
+    activeClubId: membership.clubId,
+    fakeMail: false,
+  }
+  return [me, membership]
+}
+
+describe('the catalogue in the navigation', () => {
+  it.each<[Role, boolean]>([
+    ['director', true],
+    ['coach', true],
+    ['clinician', true],
+    ['board', false],
+  ])('is listed for the %s: %s', (role, listed) => {
+    const labels = navigationItems(...as(role)).map((item) => item.label)
+    expect(labels.includes('Catalogue')).toBe(listed)
+  })
+
+  it('lets only the director open the element form', () => {
+    const rolesOf = (name: string) => routes.find((r) => r.name === name)?.meta?.roles
+    expect(rolesOf('catalogue')).toEqual(['director', 'coach', 'clinician'])
+    expect(rolesOf('element')).toEqual(['director', 'coach', 'clinician'])
+    expect(rolesOf('element-new')).toEqual(['director'])
+    expect(rolesOf('element-edit')).toEqual(['director'])
+  })
+})
