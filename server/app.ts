@@ -17,6 +17,7 @@ import { authRouter } from './routes/auth.ts'
 import { clubRoutesRouter, type ClubRoute } from './routes/club-routes.ts'
 import { healthRouter } from './routes/health.ts'
 import { allClubRoutes } from './routes/index.ts'
+import { AuditJobs } from './services/audit-jobs.ts'
 
 export interface AppOptions {
   env: Env
@@ -41,11 +42,13 @@ export function createApp({ env, database, logger, mailer, throttle, clientDir }
     mailer,
     throttle: throttle ?? new SignInThrottle(),
     logger,
+    auditJobs: new AuditJobs(database.db, logger),
   }
   const clubRoutes: ClubRoute[] = allClubRoutes(ctx)
 
   const app = express()
   app.locals.clubRoutes = clubRoutes
+  app.locals.context = ctx
   app.disable('x-powered-by')
   app.set('trust proxy', env.TRUST_PROXY)
 

@@ -5,6 +5,7 @@ import type { Sessions } from './auth/sessions.ts'
 import type { Db } from './db/client.ts'
 import type { Env } from './env.ts'
 import type { Mailer } from './mail/mailer.ts'
+import type { AuditJobs } from './services/audit-jobs.ts'
 
 /** What routes and services share: built once in createApp. */
 export interface AppContext {
@@ -14,6 +15,7 @@ export interface AppContext {
   mailer: Mailer
   throttle: SignInThrottle
   logger: Logger
+  auditJobs: AuditJobs
 }
 
 /** The address links in e-mails point at: PUBLIC_URL, else the origin of the request. */

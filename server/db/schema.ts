@@ -391,3 +391,64 @@ export const progressRecords = pgTable(
     index('progress_records_element_idx').on(t.clubId, t.elementId),
   ],
 )
+
+/**
+ * A stored audit: the result of shared/domain/audit.ts over the club's data as of a date,
+ * never changed after it is written (publishing only stamps it), with the hash of its inputs.
+ */
+export const audits = pgTable(
+  'audits',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    /** Null for an audit of the whole club. */
+    squadId: uuid(),
+    asOf: date().notNull(),
+    inputHash: text().notNull(),
+    result: jsonb().notNull(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    publishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    publishedBy: text().references(() => users.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    foreignKey({ columns: [t.clubId, t.squadId], foreignColumns: [squads.clubId, squads.id] }),
+    index('audits_scope_idx').on(t.clubId, t.squadId, t.asOf),
+  ],
+)
+
+/** What each age category asks for, per discipline; seeded from the published rules. */
+export const requirementProfiles = pgTable(
+  'requirement_profiles',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: text().notNull(),
+    label: text().notNull(),
+    discipline: disciplineEnum().notNull(),
+    categories: text().array().notNull(),
+    source: text().notNull(),
+    requirements: jsonb().notNull(),
+    updatedAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.clubId, t.id] })],
+)
+
+/** The club's age bands per discipline (calendar-year ages); seeded from the FIG rules. */
+export const ageThresholds = pgTable(
+  'age_thresholds',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    discipline: disciplineEnum().notNull(),
+    juniorFromAge: integer().notNull(),
+    seniorFromAge: integer().notNull(),
+    source: text().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.clubId, t.discipline] })],
+)

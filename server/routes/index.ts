@@ -1,5 +1,6 @@
 import type { AppContext } from '../context.ts'
 import { athleteRoutes } from './athletes.ts'
+import { auditRoutes } from './audits.ts'
 import { catalogueRoutes } from './catalogue.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
@@ -14,5 +15,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...catalogueRoutes(ctx),
     ...squadRoutes(ctx),
     ...athleteRoutes(ctx),
+    ...auditRoutes(ctx),
   ]
 }

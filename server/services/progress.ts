@@ -72,9 +72,28 @@ async function elementContext(
   return { ...element, steps, maps: new Map(maps.map((m) => [m.fromVersion, m.mapping])) }
 }
 
+/** The columns of an event that replaying it needs. */
+export const replayColumns = {
+  id: progressEvents.id,
+  athleteId: progressEvents.athleteId,
+  elementId: progressEvents.elementId,
+  kind: progressEvents.kind,
+  stepIndex: progressEvents.stepIndex,
+  stepsVersion: progressEvents.stepsVersion,
+  pauseReason: progressEvents.pauseReason,
+  plannedStepIndex: progressEvents.plannedStepIndex,
+  occurredOn: progressEvents.occurredOn,
+  recordedAt: progressEvents.recordedAt,
+  coachId: progressEvents.coachId,
+  note: progressEvents.note,
+  skipReason: progressEvents.skipReason,
+  correctsEventId: progressEvents.correctsEventId,
+}
+type ReplayRow = Pick<EventRow, keyof typeof replayColumns>
+
 /** A stored event as the domain replays it, its step indices read in the current steps. */
 export function toDomainEvent(
-  row: EventRow,
+  row: ReplayRow,
   element: Pick<ElementContext, 'stepsVersion' | 'maps'>,
 ): ProgressEvent {
   const now = (index: number) =>

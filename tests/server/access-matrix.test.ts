@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Role } from '../../shared/domain/club.ts'
 import type { Database } from '../../server/db/client.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
+import { runAndStore } from '../../server/services/audits.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -15,7 +16,11 @@ import { clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
 // A route added to the server without a row here fails the first test; a row here without a
 // route fails it too. Each row builds a valid request, so a permitted role gets the real answer.
 
-type Fixture = Awaited<ReturnType<typeof clubWithPeople>> & { db: Database; director: TestAgent }
+type Fixture = Awaited<ReturnType<typeof clubWithPeople>> & {
+  db: Database
+  director: TestAgent
+  t: TestApp
+}
 interface Row {
   allow: Role[]
   ok: number
@@ -70,6 +75,27 @@ const stepEvent = async (f: Fixture) => ({
   expectedLastEventId: null,
 })
 const writers: Role[] = ['director', 'coach']
+const directorAccess = (f: Fixture) => ({
+  clubId: f.club.id,
+  userId: f.people.director.id,
+  role: 'director' as const,
+})
+const newAudit = (f: Fixture) => runAndStore(f.db.db, directorAccess(f), { squadId: null })
+const profile = {
+  label: 'Test profile',
+  discipline: 'tumbling',
+  categories: ['senior'],
+  source: 'from memory',
+  requirements: [
+    {
+      id: 'double',
+      label: 'A double salto',
+      source: 'from memory',
+      matches: { minRotationClass: 'double' },
+      minStepIndex: 'competition-ready',
+    },
+  ],
+}
 const oneStep = [
   { name: 'Competition-ready', modality: 'routine', criterion: 'In a routine twice.' },
 ]
@@ -314,6 +340,77 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async () => ({ path: '/missing-skills' }),
   },
+  'GET /audits': { allow: readers, ok: 200, request: async () => ({ path: '/audits' }) },
+  'POST /audits': {
+    allow: ['director'],
+    ok: 202,
+    request: async () => ({ path: '/audits', body: { squadId: null } }),
+  },
+  'GET /audit-jobs/:jobId': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/audit-jobs/${f.t.context.auditJobs.start(directorAccess(f), { squadId: null }).id}`,
+    }),
+  },
+  'GET /audits/:id': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}` }),
+  },
+  'POST /audits/:id/recheck': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/recheck` }),
+  },
+  'POST /audits/:id/publish': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/publish` }),
+  },
+  'GET /audits/:id/gaps.csv': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/gaps.csv` }),
+  },
+  'GET /audits/:id/headline.csv': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/headline.csv` }),
+  },
+  'GET /audits/:id/report.pdf': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/report.pdf` }),
+  },
+  'GET /requirement-profiles': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/requirement-profiles' }),
+  },
+  'PUT /requirement-profiles/:id': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({ path: '/requirement-profiles/test-profile', body: profile }),
+  },
+  'GET /age-thresholds': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/age-thresholds' }),
+  },
+  'PUT /age-thresholds/:discipline': {
+    allow: ['director'],
+    ok: 200,
+    request: async () => ({
+      path: '/age-thresholds/tumbling',
+      body: { juniorFromAge: 13, seniorFromAge: 17, source: 'from memory' },
+    }),
+  },
+  'GET /board-summary': {
+    allow: ['director', 'board'],
+    ok: 200,
+    request: async () => ({ path: '/board-summary' }),
+  },
 }
 
 let database: Database
@@ -334,7 +431,7 @@ beforeAll(async () => {
     // a director, but of another club
     otherClub: await signedIn(t, other.people.director.email),
   }
-  f = { ...club, db: database, director: agents.director }
+  f = { ...club, db: database, director: agents.director, t }
 })
 afterAll(async () => {
   await t.close()

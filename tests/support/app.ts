@@ -5,6 +5,7 @@ import type { Database } from '../../server/db/client.ts'
 import { parseEnv, type Env } from '../../server/env.ts'
 import { createMailer, type Mailer } from '../../server/mail/mailer.ts'
 import type { ClubRoute } from '../../server/routes/club-routes.ts'
+import type { AppContext } from '../../server/context.ts'
 
 export const testEnv = parseEnv({ NODE_ENV: 'test', LOG_LEVEL: 'silent' })
 
@@ -12,6 +13,7 @@ export interface TestApp {
   app: ReturnType<typeof createApp>
   mailer: Mailer
   clubRoutes: ClubRoute[]
+  context: AppContext
   close(): Promise<void>
 }
 
@@ -33,6 +35,7 @@ export async function testApp(
     app,
     mailer,
     clubRoutes: app.locals.clubRoutes as ClubRoute[],
+    context: app.locals.context as AppContext,
     close: () => mailer.close(),
   }
 }

@@ -1,0 +1,183 @@
+import { and, eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { disciplines } from '../../shared/domain/club.ts'
+import {
+  ageThresholdInputSchema,
+  auditRunSchema,
+  requirementProfileSchema,
+} from '../../shared/schemas/audits.ts'
+import { publicOrigin, type AppContext } from '../context.ts'
+import { clubs, memberships, users } from '../db/schema.ts'
+import { AppError } from '../http/errors.ts'
+import { gapsCsv, headlineCsv, reportPdf } from '../services/audit-exports.ts'
+import {
+  boardSummary,
+  clubAgeThresholds,
+  clubProfiles,
+  getReport,
+  listAudits,
+  publish,
+  recheck,
+  saveAgeThresholds,
+  saveProfile,
+} from '../services/audits.ts'
+import type { ClubRoute } from './club-routes.ts'
+
+const idParams = z.object({ id: z.uuid('No such audit.') })
+const readers = ['director', 'coach', 'clinician'] as const
+
+/** Audits, their exports and settings, and the board's summary. */
+export function auditRoutes(ctx: AppContext): ClubRoute[] {
+  const clubName = async (clubId: string) =>
+    (await ctx.db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId)))[0]!.name
+  return [
+    {
+      method: 'get',
+      path: '/audits',
+      allow: readers,
+      handler: async (req, res) => res.json(await listAudits(ctx.db, req.club.clubId)),
+    },
+    {
+      method: 'post',
+      path: '/audits',
+      allow: ['director'],
+      handler: async (req, res) =>
+        res.status(202).json(ctx.auditJobs.start(req.club, auditRunSchema.parse(req.body))),
+    },
+    {
+      method: 'get',
+      path: '/audit-jobs/:jobId',
+      allow: ['director'],
+      handler: async (req, res) =>
+        res.json(ctx.auditJobs.get(req.club.clubId, z.uuid().parse(req.params.jobId))),
+    },
+    {
+      method: 'get',
+      path: '/audits/:id',
+      allow: readers,
+      handler: async (req, res) =>
+        res.json(await getReport(ctx.db, req.club, idParams.parse(req.params).id)),
+    },
+    {
+      method: 'post',
+      path: '/audits/:id/recheck',
+      allow: ['director'],
+      handler: async (req, res) =>
+        res.json(await recheck(ctx.db, req.club, idParams.parse(req.params).id)),
+    },
+    {
+      method: 'post',
+      path: '/audits/:id/publish',
+      allow: ['director'],
+      handler: async (req, res) => {
+        const { id } = idParams.parse(req.params)
+        const row = await publish(ctx.db, req.club, id)
+        const board = await ctx.db
+          .select({ email: users.email, name: users.name })
+          .from(memberships)
+          .innerJoin(users, eq(users.id, memberships.userId))
+          .where(and(eq(memberships.clubId, req.club.clubId), eq(memberships.role, 'board')))
+        const name = await clubName(req.club.clubId)
+        for (const member of board) {
+          await ctx.mailer.send({
+            to: member.email,
+            subject: `${name}: the audit as of ${row.asOf} is ready`,
+            text: [
+              `Hello ${member.name},`,
+              '',
+              `The technical director has published the forward/backward audit of ${name} as of ${row.asOf}.`,
+              'The summary chart and the headline figures are on the board page:',
+              '',
+              `${publicOrigin(ctx.env, req)}/board`,
+            ].join('\n'),
+          })
+        }
+        res.json({ ...(await getReport(ctx.db, req.club, id)).audit, notified: board.length })
+      },
+    },
+    {
+      method: 'get',
+      path: '/audits/:id/gaps.csv',
+      allow: readers,
+      handler: async (req, res) => {
+        const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
+        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
+        res.setHeader('Content-Disposition', `attachment; filename="gaps-${report.audit.asOf}.csv"`)
+        res.send(gapsCsv(report))
+      },
+    },
+    {
+      method: 'get',
+      path: '/audits/:id/headline.csv',
+      allow: readers,
+      handler: async (req, res) => {
+        const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
+        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
+        res.setHeader(
+          'Content-Disposition',
+          `attachment; filename="headline-${report.audit.asOf}.csv"`,
+        )
+        res.send(headlineCsv(report))
+      },
+    },
+    {
+      method: 'get',
+      path: '/audits/:id/report.pdf',
+      allow: readers,
+      handler: async (req, res) => {
+        const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
+        const pdf = await reportPdf(report, await clubName(req.club.clubId))
+        res.setHeader('Content-Type', 'application/pdf')
+        res.setHeader(
+          'Content-Disposition',
+          `attachment; filename="audit-${report.audit.asOf}.pdf"`,
+        )
+        res.send(pdf)
+      },
+    },
+    {
+      method: 'get',
+      path: '/requirement-profiles',
+      allow: readers,
+      handler: async (req, res) => res.json(await clubProfiles(ctx.db, req.club.clubId)),
+    },
+    {
+      method: 'put',
+      path: '/requirement-profiles/:id',
+      allow: ['director'],
+      handler: async (req, res) => {
+        const input = requirementProfileSchema.parse({ ...req.body, id: req.params.id })
+        res.json(await saveProfile(ctx.db, req.club, input))
+      },
+    },
+    {
+      method: 'get',
+      path: '/age-thresholds',
+      allow: readers,
+      handler: async (req, res) => res.json(await clubAgeThresholds(ctx.db, req.club.clubId)),
+    },
+    {
+      method: 'put',
+      path: '/age-thresholds/:discipline',
+      allow: ['director'],
+      handler: async (req, res) => {
+        const discipline = z.enum(disciplines).safeParse(req.params.discipline)
+        if (!discipline.success) throw new AppError(404, 'not_found', 'No such discipline.')
+        res.json(
+          await saveAgeThresholds(
+            ctx.db,
+            req.club,
+            discipline.data,
+            ageThresholdInputSchema.parse(req.body),
+          ),
+        )
+      },
+    },
+    {
+      method: 'get',
+      path: '/board-summary',
+      allow: ['director', 'board'],
+      handler: async (req, res) => res.json(await boardSummary(ctx.db, req.club.clubId)),
+    },
+  ]
+}

@@ -1,0 +1,190 @@
+import Papa from 'papaparse'
+import PDFDocument from 'pdfkit'
+import { fileURLToPath } from 'node:url'
+import type { CoverageCell } from '../../shared/domain/audit.ts'
+import { safetyCaution } from '../../shared/domain/element.ts'
+import type { AuditReport } from '../../shared/schemas/audits.ts'
+
+const pct = (n: number | null) => (n === null ? '—' : `${(n * 100).toFixed(1)} %`)
+const ratio = (n: number | null) => (n === null ? '—' : n.toFixed(2))
+
+/** The ranked gap list as CSV, with names for people and the figures for spreadsheets. */
+export function gapsCsv(report: AuditReport) {
+  return Papa.unparse({
+    fields: [
+      'rank',
+      'athlete',
+      'squad',
+      'backwardElement',
+      'backwardStep',
+      'forwardElement',
+      'forwardStep',
+      'deficitSteps',
+      'weightedDeficit',
+    ],
+    data: report.result.gaps.map((g, i) => ({
+      rank: i + 1,
+      athlete: report.athleteNames[g.athleteId] ?? g.athleteId,
+      squad: report.squadNames[g.squadId] ?? g.squadId,
+      backwardElement: g.elementName,
+      backwardStep: g.stepIndex + 1,
+      forwardElement: g.counterpartName ?? '(not in the catalogue)',
+      forwardStep: g.counterpartStepIndex === null ? '' : g.counterpartStepIndex + 1,
+      deficitSteps: g.deficitSteps,
+      weightedDeficit: g.weightedDeficit,
+    })),
+  })
+}
+
+export function headlineCsv(report: AuditReport) {
+  const h = report.result.headline
+  const c = report.comparison
+  const rows = [
+    ['athletes', h.athleteCount, c.athleteCount.change],
+    ['front-lag', h.clubFrontLag, c.clubFrontLag.change],
+    ['back-lag', h.clubBackLag, c.clubBackLag.change],
+    ['balance ratio', h.balanceRatio, c.balanceRatio.change],
+    ['catalogue gaps', h.catalogueGaps, c.catalogueGaps.change],
+    ['gaps', h.gapCount, c.gapCount.change],
+    ['athletes with gaps', h.athletesWithGaps, c.athletesWithGaps.change],
+    ['readiness alerts', h.readinessAlerts, c.readinessAlerts.change],
+    ...Object.entries(h.squadFrontLags).map(([id, v]) => [
+      `front-lag ${report.squadNames[id] ?? id}`,
+      v,
+      c.squadFrontLags[id]?.change ?? null,
+    ]),
+  ]
+  return Papa.unparse({ fields: ['figure', 'value', 'changeSincePrevious'], data: rows })
+}
+
+const font = (weight: 400 | 600) =>
+  fileURLToPath(
+    import.meta.resolve(
+      `@fontsource/ibm-plex-sans/files/ibm-plex-sans-latin-${weight}-normal.woff`,
+    ),
+  )
+
+const forwardColour = '#2f7d6d'
+const backwardColour = '#b5622d'
+
+/** The coverage chart drawn in the PDF itself: forward beside backward for each cell. */
+function coverageChart(doc: PDFKit.PDFDocument, cells: CoverageCell[]) {
+  const shown = cells.filter((c) => c.forward.elementCount + c.backward.elementCount > 0)
+  const left = doc.page.margins.left
+  const width = doc.page.width - left - doc.page.margins.right
+  const barArea = 120
+  const top = doc.y + 10
+  const slot = width / Math.max(1, shown.length)
+  doc.save()
+  doc
+    .moveTo(left, top + barArea)
+    .lineTo(left + width, top + barArea)
+    .strokeColor('#888')
+    .stroke()
+  shown.forEach((cell, i) => {
+    const x = left + i * slot + slot * 0.15
+    const w = slot * 0.33
+    const f = cell.forward.mean * barArea
+    const b = cell.backward.mean * barArea
+    doc.rect(x, top + barArea - b, w, b).fill(backwardColour)
+    doc.rect(x + w, top + barArea - f, w, f).fill(forwardColour)
+    doc
+      .fillColor('#333')
+      .fontSize(6.5)
+      .text(`${cell.rotationClass}\n${cell.twistBand}`, left + i * slot, top + barArea + 3, {
+        width: slot,
+        align: 'center',
+      })
+  })
+  doc.restore()
+  doc.y = top + barArea + 26
+  doc.x = left
+  const legendY = doc.y
+  doc.rect(left, legendY + 1, 7, 7).fill(backwardColour)
+  doc.rect(left + 70, legendY + 1, 7, 7).fill(forwardColour)
+  doc
+    .fillColor('#333')
+    .fontSize(8)
+    .text('backward', left + 10, legendY)
+  doc.text('forward', left + 80, legendY)
+  doc.x = left
+  doc.fillColor('#000')
+}
+
+/** The report as a PDF: headline figures with their change, the coverage chart, squads, gaps, readiness. */
+export function reportPdf(report: AuditReport, clubName: string): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const doc = new PDFDocument({
+      size: 'A4',
+      margin: 48,
+      info: { Title: `Twofold audit ${report.audit.asOf}` },
+    })
+    const chunks: Buffer[] = []
+    doc.on('data', (c: Buffer) => chunks.push(c))
+    doc.on('end', () => resolve(Buffer.concat(chunks)))
+    doc.on('error', reject)
+    doc.registerFont('regular', font(400))
+    doc.registerFont('bold', font(600))
+
+    const h = report.result.headline
+    const c = report.comparison
+    const change = (n: number | null, asPct = true) =>
+      n === null
+        ? ''
+        : ` (${n >= 0 ? '+' : ''}${asPct ? `${(n * 100).toFixed(1)} pts` : n.toFixed(2)})`
+    doc.font('bold').fontSize(18).text(`${clubName}: forward/backward audit`)
+    doc.font('regular').fontSize(10).fillColor('#555')
+    doc.text(
+      `${report.audit.scopeName} · as of ${report.audit.asOf} · inputs hash ${report.audit.inputHash.slice(0, 16)}…`,
+    )
+    doc.fillColor('#000').moveDown()
+    doc.font('bold').fontSize(12).text('Headline figures')
+    doc.font('regular').fontSize(10)
+    doc.text(`Front-lag: ${pct(h.clubFrontLag)}${change(c.clubFrontLag.change)}`)
+    doc.text(`Back-lag: ${pct(h.clubBackLag)}${change(c.clubBackLag.change)}`)
+    doc.text(
+      `Balance ratio (forward / backward): ${ratio(h.balanceRatio)}${change(c.balanceRatio.change, false)}`,
+    )
+    doc.text(
+      `Catalogue gaps: ${h.catalogueGaps} · athletes with gaps: ${h.athletesWithGaps} · readiness alerts: ${h.readinessAlerts}`,
+    )
+    doc.moveDown()
+    doc.font('bold').fontSize(12).text('Coverage: mean best proficiency by rotation and twist')
+    coverageChart(doc, report.result.coverage)
+    doc.moveDown()
+    doc.font('bold').fontSize(12).text('Squads')
+    doc.font('regular').fontSize(10)
+    for (const s of report.result.squads) {
+      doc.text(
+        `${report.squadNames[s.squadId] ?? 'Squad'}: front-lag ${pct(s.frontLag)}, balance ${ratio(s.balanceRatio)}, ${s.athletesWithGaps} of ${s.athleteCount} athletes with gaps`,
+      )
+    }
+    doc.moveDown()
+    doc.font('bold').fontSize(12).text('Largest gaps')
+    doc.font('regular').fontSize(9)
+    for (const [i, g] of report.result.gaps.slice(0, 40).entries()) {
+      const forward = g.counterpartName
+        ? `${g.counterpartName} ${g.counterpartStepIndex === null ? 'not started' : `step ${g.counterpartStepIndex + 1}`}`
+        : 'no forward element in the catalogue'
+      doc.text(
+        `${i + 1}. ${report.athleteNames[g.athleteId] ?? ''}: ${g.elementName} step ${g.stepIndex + 1} · ${forward} · ${g.deficitSteps} steps`,
+      )
+    }
+    if (report.result.gaps.length > 40)
+      doc.text(`… and ${report.result.gaps.length - 40} more in the CSV export.`)
+    doc.moveDown()
+    doc.font('bold').fontSize(12).text('Readiness for the next age category')
+    doc.font('regular').fontSize(9)
+    for (const r of report.result.readiness.filter((x) => x.missingCount > 0).slice(0, 40)) {
+      const missing = r.requirements
+        .filter((q) => !q.met)
+        .map((q) => `${q.label}${q.forecastOn ? ` (forecast ${q.forecastOn})` : ' (no forecast)'}`)
+      doc.text(
+        `${report.athleteNames[r.athleteId] ?? ''}: ${r.to} from ${r.startsOn}; missing ${missing.join('; ')}`,
+      )
+    }
+    doc.moveDown()
+    doc.fontSize(8).fillColor('#555').text(safetyCaution)
+    doc.end()
+  })
+}

@@ -1,0 +1,457 @@
+import { and, asc, desc, eq, inArray, isNull, lte } from 'drizzle-orm'
+import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
+import { todayIso } from '../../shared/domain/access.ts'
+import {
+  auditInputHash,
+  compareAudits,
+  defaultRequirementProfiles,
+  runAudit,
+  type AuditInputs,
+  type AuditProgress,
+  type AuditResult,
+  type RequirementProfile,
+} from '../../shared/domain/audit.ts'
+import type { Discipline } from '../../shared/domain/club.ts'
+import { athletePace, replayRecord, type ProgressEvent } from '../../shared/domain/progress.ts'
+import { quarterEnd } from '../../shared/domain/quarters.ts'
+import type {
+  AuditReport,
+  AuditRun,
+  AuditSummary,
+  BoardSummary,
+  RequirementProfileInput,
+} from '../../shared/schemas/audits.ts'
+import type { ClubAccess } from '../auth/club-access.ts'
+import type { DbOrTx } from '../db/client.ts'
+import {
+  ageThresholds,
+  athletes,
+  audits,
+  clubs,
+  elementStepMaps,
+  elementSteps,
+  elements,
+  progressEvents,
+  requirementProfiles,
+  squads,
+} from '../db/schema.ts'
+import { AppError, notFound } from '../http/errors.ts'
+import { listElements } from './catalogue.ts'
+import { replayColumns, toDomainEvent } from './progress.ts'
+import { readableSquadIds } from './scope.ts'
+
+/** Gives a new club the seeded requirement profiles and age thresholds. */
+export async function installAuditDefaults(db: DbOrTx, clubId: string) {
+  await db.insert(requirementProfiles).values(
+    defaultRequirementProfiles.map((p) => ({
+      clubId,
+      id: p.id,
+      label: p.label,
+      discipline: p.discipline,
+      categories: [...p.categories],
+      source: p.source,
+      requirements: p.requirements,
+    })),
+  )
+  await db.insert(ageThresholds).values(
+    Object.entries(defaultAgeThresholds).map(([discipline, t]) => ({
+      clubId,
+      discipline: discipline as Discipline,
+      juniorFromAge: t.juniorFromAge,
+      seniorFromAge: t.seniorFromAge,
+      source: t.source,
+    })),
+  )
+}
+
+export async function clubProfiles(db: DbOrTx, clubId: string): Promise<RequirementProfile[]> {
+  const rows = await db
+    .select()
+    .from(requirementProfiles)
+    .where(eq(requirementProfiles.clubId, clubId))
+    .orderBy(asc(requirementProfiles.id))
+  return rows.map((r) => ({
+    id: r.id,
+    label: r.label,
+    discipline: r.discipline,
+    categories: r.categories as RequirementProfile['categories'],
+    source: r.source,
+    requirements: r.requirements as RequirementProfile['requirements'],
+  }))
+}
+
+export async function clubAgeThresholds(db: DbOrTx, clubId: string): Promise<AgeThresholdTable> {
+  const rows = await db.select().from(ageThresholds).where(eq(ageThresholds.clubId, clubId))
+  const table = { ...defaultAgeThresholds }
+  for (const r of rows)
+    table[r.discipline] = {
+      juniorFromAge: r.juniorFromAge,
+      seniorFromAge: r.seniorFromAge,
+      source: r.source,
+    }
+  return table
+}
+
+export async function saveProfile(db: DbOrTx, access: ClubAccess, input: RequirementProfileInput) {
+  const values = {
+    label: input.label,
+    discipline: input.discipline,
+    categories: input.categories,
+    source: input.source,
+    requirements: input.requirements,
+    updatedAt: new Date(),
+  }
+  await db
+    .insert(requirementProfiles)
+    .values({ clubId: access.clubId, id: input.id, ...values })
+    .onConflictDoUpdate({
+      target: [requirementProfiles.clubId, requirementProfiles.id],
+      set: values,
+    })
+  return (await clubProfiles(db, access.clubId)).find((p) => p.id === input.id)!
+}
+
+export async function saveAgeThresholds(
+  db: DbOrTx,
+  access: ClubAccess,
+  discipline: Discipline,
+  input: { juniorFromAge: number; seniorFromAge: number; source: string },
+) {
+  await db
+    .insert(ageThresholds)
+    .values({ clubId: access.clubId, discipline, ...input })
+    .onConflictDoUpdate({ target: [ageThresholds.clubId, ageThresholds.discipline], set: input })
+  return clubAgeThresholds(db, access.clubId)
+}
+
+/** The as-of date of a run: the given date, the end of the quarter, or today. */
+export function runDate(run: AuditRun): string {
+  const date = run.asOf ?? (run.quarter ? quarterEnd(run.quarter) : todayIso())
+  if (date > todayIso()) {
+    throw new AppError(400, 'invalid_input', 'An audit cannot describe a day still to come.', [
+      { path: run.quarter ? 'quarter' : 'asOf', message: 'Choose a day up to today.' },
+    ])
+  }
+  return date
+}
+
+/**
+ * Everything the audit reads, as of a date: the catalogue, the athletes of the scope, each
+ * record replayed from its events up to that date (highest step reached, in today's steps), the
+ * athletes' recent pace, the club's profiles and age bands.
+ */
+export async function gatherInputs(
+  db: DbOrTx,
+  clubId: string,
+  squadId: string | null,
+  asOf: string,
+): Promise<AuditInputs> {
+  const [catalogue, stepRows, maps, roster, profiles, thresholds] = await Promise.all([
+    listElements(db, clubId),
+    db
+      .select({ elementId: elementSteps.elementId, position: elementSteps.position })
+      .from(elementSteps)
+      .where(eq(elementSteps.clubId, clubId)),
+    db.select().from(elementStepMaps).where(eq(elementStepMaps.clubId, clubId)),
+    db
+      .select({
+        id: athletes.id,
+        squadId: athletes.squadId,
+        birthYear: athletes.birthYear,
+        discipline: athletes.discipline,
+      })
+      .from(athletes)
+      .where(
+        and(
+          eq(athletes.clubId, clubId),
+          isNull(athletes.archivedAt),
+          squadId ? eq(athletes.squadId, squadId) : undefined,
+        ),
+      ),
+    clubProfiles(db, clubId),
+    clubAgeThresholds(db, clubId),
+  ])
+  const stepCount = new Map<string, number>()
+  for (const s of stepRows)
+    stepCount.set(s.elementId, Math.max(stepCount.get(s.elementId) ?? 0, s.position + 1))
+  const versions = new Map<string, { stepsVersion: number; maps: Map<number, number[]> }>()
+  const elementRows = await db
+    .select({ id: elements.id, stepsVersion: elements.stepsVersion })
+    .from(elements)
+    .where(eq(elements.clubId, clubId))
+  for (const e of elementRows) versions.set(e.id, { stepsVersion: e.stepsVersion, maps: new Map() })
+  for (const m of maps) versions.get(m.elementId)?.maps.set(m.fromVersion, m.mapping)
+
+  const inScope = new Set(roster.map((a) => a.id))
+  const eventRows = await db
+    .select(replayColumns)
+    .from(progressEvents)
+    .where(
+      and(
+        eq(progressEvents.clubId, clubId),
+        lte(progressEvents.occurredOn, asOf),
+        squadId && roster.length > 0 ? inArray(progressEvents.athleteId, [...inScope]) : undefined,
+      ),
+    )
+  const histories = new Map<string, ProgressEvent[]>()
+  for (const row of eventRows) {
+    if (!inScope.has(row.athleteId)) continue
+    const key = `${row.athleteId}|${row.elementId}`
+    let list = histories.get(key)
+    if (!list) histories.set(key, (list = []))
+    list.push(toDomainEvent(row, versions.get(row.elementId)!))
+  }
+  const records: AuditInputs['records'][number][] = []
+  const byAthlete = new Map<string, ProgressEvent[][]>()
+  for (const [key, events] of histories) {
+    const [athleteId, elementId] = key.split('|') as [string, string]
+    records.push({
+      athleteId,
+      elementId,
+      stepIndex: replayRecord(events, { asOf }).highestStepIndex,
+    })
+    let list = byAthlete.get(athleteId)
+    if (!list) byAthlete.set(athleteId, (list = []))
+    list.push(events)
+  }
+  const paces: Record<string, number> = {}
+  for (const [athleteId, list] of byAthlete) paces[athleteId] = athletePace(list, asOf)
+  return {
+    asOf,
+    elements: catalogue.map((e) => ({
+      id: e.id,
+      name: e.name,
+      direction: e.direction,
+      rotationClass: e.rotationClass,
+      twistBand: e.twistBand,
+      counterpartId: e.counterpartId,
+      stepCount: stepCount.get(e.id) ?? 1,
+    })),
+    athletes: roster,
+    records,
+    paces,
+    profiles,
+    ageThresholds: thresholds,
+  }
+}
+
+export type ProgressListener = (progress: { phase: string; done: number; total: number }) => void
+
+/** Runs and stores one audit; the stored row is never changed afterwards. */
+export async function runAndStore(
+  db: DbOrTx,
+  access: ClubAccess,
+  run: AuditRun,
+  onProgress: ProgressListener = () => {},
+) {
+  const asOf = runDate(run)
+  if (run.squadId) {
+    const [squad] = await db
+      .select()
+      .from(squads)
+      .where(and(eq(squads.clubId, access.clubId), eq(squads.id, run.squadId)))
+    if (!squad) throw notFound('No such squad in this club.')
+  }
+  onProgress({ phase: 'reading', done: 0, total: 1 })
+  const inputs = await gatherInputs(db, access.clubId, run.squadId, asOf)
+  onProgress({ phase: 'reading', done: 1, total: 1 })
+  const result = runAudit(inputs, {}, (p: AuditProgress) => onProgress(p))
+  onProgress({ phase: 'hashing', done: 0, total: 1 })
+  const inputHash = await auditInputHash(inputs)
+  const [row] = await db
+    .insert(audits)
+    .values({
+      clubId: access.clubId,
+      squadId: run.squadId,
+      asOf,
+      inputHash,
+      result,
+      createdBy: access.userId,
+    })
+    .returning({ id: audits.id })
+  onProgress({ phase: 'done', done: 1, total: 1 })
+  return row!.id
+}
+
+async function squadNames(db: DbOrTx, clubId: string) {
+  const rows = await db
+    .select({ id: squads.id, name: squads.name })
+    .from(squads)
+    .where(eq(squads.clubId, clubId))
+  return Object.fromEntries(rows.map((r) => [r.id, r.name]))
+}
+
+function summary(row: typeof audits.$inferSelect, names: Record<string, string>): AuditSummary {
+  const result = row.result as AuditResult
+  return {
+    id: row.id,
+    squadId: row.squadId,
+    scopeName: row.squadId ? (names[row.squadId] ?? 'Squad') : 'Whole club',
+    asOf: row.asOf,
+    inputHash: row.inputHash,
+    createdAt: row.createdAt.toISOString(),
+    publishedAt: row.publishedAt?.toISOString() ?? null,
+    clubFrontLag: result.headline.clubFrontLag,
+    balanceRatio: result.headline.balanceRatio,
+    athleteCount: result.headline.athleteCount,
+  }
+}
+
+export async function listAudits(db: DbOrTx, clubId: string): Promise<AuditSummary[]> {
+  const names = await squadNames(db, clubId)
+  const rows = await db
+    .select()
+    .from(audits)
+    .where(eq(audits.clubId, clubId))
+    .orderBy(desc(audits.asOf), desc(audits.createdAt))
+  return rows.map((r) => summary(r, names))
+}
+
+async function auditRow(db: DbOrTx, clubId: string, id: string) {
+  const [row] = await db
+    .select()
+    .from(audits)
+    .where(and(eq(audits.clubId, clubId), eq(audits.id, id)))
+  if (!row) throw notFound('No such audit.')
+  return row
+}
+
+/** The previous audit of the same scope: the latest one with an earlier as-of date (or created before on the same date). */
+function previousOf(rows: (typeof audits.$inferSelect)[], row: typeof audits.$inferSelect) {
+  return rows
+    .filter(
+      (r) =>
+        r.id !== row.id &&
+        (r.asOf < row.asOf || (r.asOf === row.asOf && r.createdAt < row.createdAt)),
+    )
+    .sort(
+      (a, b) => b.asOf.localeCompare(a.asOf) || b.createdAt.getTime() - a.createdAt.getTime(),
+    )[0]
+}
+
+/** A report; for a coach the athlete rows are limited to their squads. */
+export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Promise<AuditReport> {
+  const row = await auditRow(db, access.clubId, id)
+  const names = await squadNames(db, access.clubId)
+  const scope = await db
+    .select()
+    .from(audits)
+    .where(
+      and(
+        eq(audits.clubId, access.clubId),
+        row.squadId ? eq(audits.squadId, row.squadId) : isNull(audits.squadId),
+      ),
+    )
+  const previous = previousOf(scope, row)
+  const full = row.result as AuditResult
+  const readable = await readableSquadIds(db, access)
+  const keep = (squadId: string) => readable === 'all' || readable.includes(squadId)
+  const result: AuditResult = {
+    ...full,
+    athletes: full.athletes.filter((a) => keep(a.squadId)),
+    gaps: full.gaps.filter((g) => keep(g.squadId)),
+    readiness: full.readiness.filter((r) => keep(r.squadId)),
+  }
+  const ids = [
+    ...new Set([
+      ...result.athletes.map((a) => a.athleteId),
+      ...result.readiness.map((r) => r.athleteId),
+    ]),
+  ]
+  const people =
+    ids.length === 0
+      ? []
+      : await db
+          .select({
+            id: athletes.id,
+            givenName: athletes.givenName,
+            familyName: athletes.familyName,
+          })
+          .from(athletes)
+          .where(and(eq(athletes.clubId, access.clubId), inArray(athletes.id, ids)))
+  return {
+    audit: summary(row, names),
+    result,
+    comparison: compareAudits(previous ? (previous.result as AuditResult) : null, full),
+    previous: previous ? summary(previous, names) : null,
+    trend: scope
+      .sort((a, b) => a.asOf.localeCompare(b.asOf) || a.createdAt.getTime() - b.createdAt.getTime())
+      .map((r) => {
+        const h = (r.result as AuditResult).headline
+        return {
+          id: r.id,
+          asOf: r.asOf,
+          clubFrontLag: h.clubFrontLag,
+          balanceRatio: h.balanceRatio,
+        }
+      }),
+    athleteNames: Object.fromEntries(people.map((p) => [p.id, `${p.givenName} ${p.familyName}`])),
+    squadNames: names,
+    limitedToSquads: readable !== 'all',
+  }
+}
+
+/** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
+export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
+  const row = await auditRow(db, access.clubId, id)
+  const hash = await auditInputHash(await gatherInputs(db, access.clubId, row.squadId, row.asOf))
+  return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
+}
+
+export async function publish(db: DbOrTx, access: ClubAccess, id: string) {
+  const row = await auditRow(db, access.clubId, id)
+  if (row.publishedAt)
+    throw new AppError(409, 'already_published', 'This audit is already published.')
+  await db
+    .update(audits)
+    .set({ publishedAt: new Date(), publishedBy: access.userId })
+    .where(and(eq(audits.clubId, access.clubId), eq(audits.id, id)))
+  return row
+}
+
+/** The board's page: published club-wide audits only, figures and squad names, no athletes. */
+export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSummary> {
+  const [club] = await db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId))
+  const names = await squadNames(db, clubId)
+  const rows = (
+    await db
+      .select()
+      .from(audits)
+      .where(and(eq(audits.clubId, clubId), isNull(audits.squadId)))
+      .orderBy(asc(audits.asOf), asc(audits.createdAt))
+  ).filter((r) => r.publishedAt !== null)
+  const last = rows.at(-1)
+  const latest = last ? (last.result as AuditResult) : null
+  return {
+    clubName: club!.name,
+    trend: rows.map((r) => {
+      const h = (r.result as AuditResult).headline
+      return {
+        asOf: r.asOf,
+        clubFrontLag: h.clubFrontLag,
+        clubBackLag: h.clubBackLag,
+        balanceRatio: h.balanceRatio,
+      }
+    }),
+    latest:
+      last && latest
+        ? {
+            asOf: last.asOf,
+            publishedAt: last.publishedAt!.toISOString(),
+            athleteCount: latest.headline.athleteCount,
+            clubFrontLag: latest.headline.clubFrontLag,
+            balanceRatio: latest.headline.balanceRatio,
+            catalogueGaps: latest.headline.catalogueGaps,
+            athletesWithGaps: latest.headline.athletesWithGaps,
+            readinessAlerts: latest.headline.readinessAlerts,
+            squads: latest.squads
+              .map((s) => ({
+                name: names[s.squadId] ?? 'Squad',
+                frontLag: s.frontLag,
+                athleteCount: s.athleteCount,
+              }))
+              .sort((a, b) => a.name.localeCompare(b.name)),
+          }
+        : null,
+  }
+}

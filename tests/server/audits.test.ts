@@ -1,0 +1,254 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import request from 'supertest'
+import type TestAgent from 'supertest/lib/agent.js'
+import type { Database } from '../../server/db/client.ts'
+import { createAthlete } from '../../server/services/athletes.ts'
+import { listElements } from '../../server/services/catalogue.ts'
+import { appendHistory } from '../../server/services/progress.ts'
+import { createSquad } from '../../server/services/squads.ts'
+import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
+import { freshDatabase } from '../support/database.ts'
+import { testApp, type TestApp } from '../support/app.ts'
+import { clubWithPeople, signedIn } from '../support/fixtures.ts'
+
+// A worked example through the whole stack (events → replay as of a date → audit → stored
+// report), computed by hand with the brief's formulas:
+//   Ada: back tuck at step index 3 (p = 4/N), front tuck not started (p = 0)
+//   Bea: back tuck at step index 1 (p = 2/N), front tuck at step index 1 (p = 2/N)
+//   squad front-lag = 1 − (min(4/N, 0) + min(2/N, 2/N)) / (4/N + 2/N) = 1 − 2/6 = 2/3
+//   balance ratio = Σ forward / Σ backward = (0 + 2/N) / (4/N + 2/N) = 1/3
+// N, the number of steps, cancels out.
+
+let database: Database
+let t: TestApp
+let fx: Awaited<ReturnType<typeof clubWithPeople>>
+let director: TestAgent
+let coach: TestAgent
+let board: TestAgent
+let base: string
+const names = { ada: ['Ada', 'Quillmere'], bea: ['Bea', 'Harrowfield'] } as const
+let ada: string
+let bea: string
+let backTuck: string
+let frontTuck: string
+
+beforeAll(async () => {
+  database = await freshDatabase()
+  t = await testApp(database)
+  fx = await clubWithPeople(database.db, 'audit')
+  director = await signedIn(t, fx.people.director.email)
+  coach = await signedIn(t, fx.people.coach.email)
+  board = await signedIn(t, fx.people.board.email)
+  base = `/api/clubs/${fx.club.id}`
+  const catalogue = await listElements(database.db, fx.club.id)
+  const pick = (direction: string) =>
+    catalogue.find(
+      (e) =>
+        e.apparatus === 'floor' &&
+        e.direction === direction &&
+        e.quarterRotations === 4 &&
+        e.twists[0] === 0 &&
+        e.shape === 'tuck',
+    )!.id
+  backTuck = pick('backward')
+  frontTuck = pick('forward')
+  const athlete = async ([givenName, familyName]: readonly [string, string]) =>
+    (
+      await createAthlete(database.db, fx.club.id, {
+        givenName,
+        familyName,
+        birthYear: 2011,
+        squadId: fx.squad.id,
+        discipline: 'artistic-women',
+      })
+    ).id
+  ada = await athlete(names.ada)
+  bea = await athlete(names.bea)
+  const step = (athleteId: string, elementId: string, stepIndex: number, occurredOn: string) => ({
+    athleteId,
+    elementId,
+    coachId: fx.people.coach.id,
+    change: {
+      kind: 'step' as const,
+      stepIndex,
+      occurredOn,
+      ...(stepIndex > 0 ? { skipReason: 'Assessed' } : {}),
+    },
+  })
+  await appendHistory(database.db, fx.club.id, [
+    step(ada, backTuck, 3, '2026-05-10'),
+    step(bea, backTuck, 1, '2026-05-10'),
+    step(bea, frontTuck, 1, '2026-05-12'),
+    // after the end of the second quarter: an audit as of 2026-06-30 must not see it
+    step(ada, frontTuck, 3, '2026-07-15'),
+  ])
+})
+afterAll(async () => {
+  await t.close()
+  await database.close()
+})
+
+async function runAudit(body: Record<string, unknown>) {
+  const started = await director.post(`${base}/audits`).send(body)
+  expect(started.status).toBe(202)
+  let job = started.body
+  for (let i = 0; i < 200 && job.status === 'running'; i++) {
+    await new Promise((r) => setTimeout(r, 25))
+    job = (await director.get(`${base}/audit-jobs/${job.id}`).expect(200)).body
+  }
+  expect(job.status).toBe('done')
+  return (await director.get(`${base}/audits/${job.auditId}`).expect(200)).body as AuditReport
+}
+
+describe('running an audit', () => {
+  let q2: AuditReport
+
+  it('replays the records as of the end of a quarter and computes the brief’s figures', async () => {
+    q2 = await runAudit({ squadId: null, quarter: '2026-Q2' })
+    expect(q2.audit.asOf).toBe('2026-06-30')
+    expect(q2.result.headline.clubFrontLag).toBeCloseTo(2 / 3, 10)
+    expect(q2.result.headline.balanceRatio).toBeCloseTo(1 / 3, 10)
+    expect(q2.result.headline.squadFrontLags[fx.squad.id]).toBeCloseTo(2 / 3, 10)
+    expect(
+      q2.result.gaps.map((g) => [g.athleteId, g.elementId, g.counterpartNeverStarted]),
+    ).toEqual([[ada, backTuck, true]])
+    expect(q2.athleteNames[ada]).toBe('Ada Quillmere')
+    expect(q2.previous).toBeNull()
+  })
+
+  it('gives the same hash and numbers over the same inputs', async () => {
+    const again = await runAudit({ squadId: null, asOf: '2026-06-30' })
+    expect(again.audit.inputHash).toBe(q2.audit.inputHash)
+    expect(again.result.headline).toEqual(q2.result.headline)
+    expect(
+      (await director.post(`${base}/audits/${q2.audit.id}/recheck`).expect(200)).body.unchanged,
+    ).toBe(true)
+  })
+
+  it('sees later events in a later audit, compares with the previous one, and charts the trend', async () => {
+    const today = await runAudit({ squadId: null })
+    // Ada's front tuck now matches her back tuck: front-lag 1 − (4/N + 2/N) / (6/N) = 0
+    expect(today.result.headline.clubFrontLag).toBeCloseTo(0, 10)
+    expect(today.audit.inputHash).not.toBe(q2.audit.inputHash)
+    expect(today.previous?.asOf).toBe('2026-06-30')
+    expect(today.comparison.clubFrontLag.change).toBeCloseTo(-2 / 3, 10)
+    expect(today.trend.map((p) => p.asOf)).toEqual(['2026-06-30', '2026-06-30', today.audit.asOf])
+  })
+
+  it('tells when the inputs changed after the audit (a back-dated correction)', async () => {
+    await appendHistory(database.db, fx.club.id, [
+      {
+        athleteId: bea,
+        elementId: frontTuck,
+        coachId: fx.people.coach.id,
+        change: { kind: 'step', stepIndex: 2, occurredOn: '2026-06-01' },
+      },
+    ])
+    const res = (await director.post(`${base}/audits/${q2.audit.id}/recheck`).expect(200)).body
+    expect(res.unchanged).toBe(false)
+    // the stored audit itself never changes
+    const stored = (await director.get(`${base}/audits/${q2.audit.id}`).expect(200))
+      .body as AuditReport
+    expect(stored.result.headline.clubFrontLag).toBeCloseTo(2 / 3, 10)
+  })
+
+  it('refuses a date still to come, naming the field', async () => {
+    const res = await director.post(`${base}/audits`).send({ squadId: null, asOf: '2999-01-01' })
+    expect(res.status).toBe(400)
+    expect(res.body.error.issues[0].path).toBe('asOf')
+  })
+
+  it('exports the gap list and the headline figures as CSV and the report as a PDF', async () => {
+    const gaps = await coach.get(`${base}/audits/${q2.audit.id}/gaps.csv`).expect(200)
+    expect(gaps.text.split(/\r?\n/)[0]).toBe(
+      'rank,athlete,squad,backwardElement,backwardStep,forwardElement,forwardStep,deficitSteps,weightedDeficit',
+    )
+    expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,')
+    const headline = await coach.get(`${base}/audits/${q2.audit.id}/headline.csv`).expect(200)
+    expect(headline.text).toContain('front-lag,0.666666')
+    const pdf = await director
+      .get(`${base}/audits/${q2.audit.id}/report.pdf`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = []
+        res.on('data', (c: Buffer) => chunks.push(c))
+        res.on('end', () => cb(null, Buffer.concat(chunks)))
+      })
+    expect(pdf.headers['content-type']).toBe('application/pdf')
+    expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-')
+  })
+})
+
+describe('publishing and the board', () => {
+  it('e-mails the board a notice with a link, and the board sees aggregates only', async () => {
+    const report = await runAudit({ squadId: null, asOf: '2026-06-30' })
+    const published = await director.post(`${base}/audits/${report.audit.id}/publish`).expect(200)
+    expect(published.body.notified).toBe(1)
+    const mail = await t.mailer.fake!.waitFor(fx.people.board.email)
+    expect(mail.subject).toContain('the audit as of 2026-06-30 is ready')
+    expect(mail.text).toMatch(/http:\/\/127\.0\.0\.1:\d+\/board/)
+    await director.post(`${base}/audits/${report.audit.id}/publish`).expect(409)
+
+    const summary = (await board.get(`${base}/board-summary`).expect(200)).body as BoardSummary
+    expect(summary.latest?.clubFrontLag).toBeCloseTo(2 / 3, 10)
+    expect(summary.latest?.squads).toEqual([
+      { name: 'Squad A', frontLag: expect.any(Number), athleteCount: 2 },
+    ])
+  })
+
+  it('lets the board reach no athlete-level data in any response', async () => {
+    const forbidden = [ada, bea, ...Object.values(names).flat(), '2011']
+    const reachable = t.clubRoutes
+      .filter((r) => r.method === 'get' && r.allow.includes('board'))
+      .map((r) => r.path)
+    expect(reachable.sort()).toEqual(['/', '/board-summary'])
+    const bodies = [
+      ...(await Promise.all(
+        reachable.map(async (path) => (await board.get(`${base}${path}`)).text),
+      )),
+      (await board.get('/api/auth/me')).text,
+    ]
+    // every other club route answers the board with a refusal that carries no data
+    for (const route of t.clubRoutes.filter((r) => !r.allow.includes('board'))) {
+      const path = route.path.replace(/:[a-zA-Z]+/g, crypto.randomUUID())
+      const res = await (board as unknown as Record<string, (url: string) => request.Test>)[
+        route.method
+      ]!(`${base}${path}`)
+      expect([403, 404]).toContain(res.status)
+      bodies.push(res.text)
+    }
+    for (const body of bodies) for (const secret of forbidden) expect(body).not.toContain(secret)
+  })
+
+  it('limits the report’s athlete rows to a coach’s own squads', async () => {
+    const elsewhere = await createSquad(database.db, fx.club.id, {
+      name: 'Not the coach’s',
+      level: 'junior',
+      discipline: 'artistic-women',
+    })
+    const other = (
+      await createAthlete(database.db, fx.club.id, {
+        givenName: 'Cora',
+        familyName: 'Elsewhere',
+        birthYear: 2011,
+        squadId: elsewhere.id,
+        discipline: 'artistic-women',
+      })
+    ).id
+    await appendHistory(database.db, fx.club.id, [
+      {
+        athleteId: other,
+        elementId: backTuck,
+        coachId: fx.people.director.id,
+        change: { kind: 'step', stepIndex: 0, occurredOn: '2026-06-01' },
+      },
+    ])
+    const report = await runAudit({ squadId: null })
+    const asCoach = (await coach.get(`${base}/audits/${report.audit.id}`).expect(200))
+      .body as AuditReport
+    expect(asCoach.limitedToSquads).toBe(true)
+    expect(asCoach.result.gaps.some((g) => g.athleteId === other)).toBe(false)
+    expect(Object.keys(asCoach.athleteNames)).not.toContain(other)
+    expect(report.result.gaps.some((g) => g.athleteId === other)).toBe(true)
+  })
+})
