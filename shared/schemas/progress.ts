@@ -12,7 +12,8 @@ export const progressEventInputSchema = z
     /** For a lost-skill pause: the step the athlete rebuilds from. */
     plannedStepIndex: z.number().int().min(0).nullish(),
     occurredOn: isoDateSchema.refine(
-      (d) => d <= new Date().toISOString().slice(0, 10),
+      // A day of grace: east of UTC a coach's morning is already the next UTC date.
+      (d) => d <= new Date(Date.now() + 86_400_000).toISOString().slice(0, 10),
       'The date cannot be in the future.',
     ),
     note: z.string().trim().max(1000, 'Keep the note to 1000 characters.').nullish(),

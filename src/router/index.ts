@@ -1,6 +1,7 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
 import type { Role } from '@shared/domain/club'
 import { useSessionStore } from '@/stores/session'
+import { progressRoutes } from './progressRoutes'
 
 declare module 'vue-router' {
   interface RouteMeta {
@@ -107,6 +108,7 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/views/NoAccessView.vue'),
     meta: { title: 'No access' },
   },
+  ...progressRoutes,
   {
     path: '/:pathMatch(.*)*',
     name: 'not-found',

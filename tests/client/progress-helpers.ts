@@ -1,0 +1,81 @@
+import { mount } from '@vue/test-utils'
+import { NConfigProvider, NDialogProvider, NMessageProvider } from 'naive-ui'
+import { createPinia, setActivePinia } from 'pinia'
+import { defineComponent, h, type Component } from 'vue'
+import { createMemoryHistory, createRouter, type Router } from 'vue-router'
+import type { RecordDetail } from '@shared/schemas/progress'
+
+const blank: Component = { render: () => null }
+
+/** A router with the route names the progress screens link to. */
+export function progressRouter(): Router {
+  return createRouter({
+    history: createMemoryHistory(),
+    routes: [
+      { path: '/', name: 'home', component: blank },
+      { path: '/squads', name: 'squads', component: blank },
+      { path: '/squads/:squadId', name: 'squad', component: blank },
+      { path: '/log', name: 'progress-log', component: blank },
+      { path: '/athletes/:athleteId', name: 'athlete', component: blank },
+      { path: '/missing-skills', name: 'missing-skills', component: blank },
+    ],
+  })
+}
+
+/** Mounts a component inside the Naive UI providers (config, messages, dialogs), with Pinia. */
+export function mountInProviders(component: Component, props: Record<string, unknown> = {}) {
+  const pinia = createPinia()
+  setActivePinia(pinia)
+  const router = progressRouter()
+  const shell = defineComponent({
+    setup: () => () =>
+      h(NConfigProvider, null, () =>
+        h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(component, props))),
+      ),
+  })
+  const wrapper = mount(shell, {
+    attachTo: document.body,
+    global: { plugins: [pinia, router], stubs: { teleport: true } },
+  })
+  return { wrapper, pinia, router }
+}
+
+export const clubId = '11111111-1111-4111-8111-111111111111'
+export const athleteId = '22222222-2222-4222-8222-222222222222'
+export const elementId = '33333333-3333-4333-8333-333333333333'
+export const eventIds = [
+  '44444444-4444-4444-8444-444444444401',
+  '44444444-4444-4444-8444-444444444402',
+]
+
+// A common trampoline progression for a back tuck (common practice, no published source).
+const steps = [
+  { name: 'Tuck jumps and timers', modality: 'floor-drill', minDays: null },
+  { name: 'Rotation in the spotting rig', modality: 'spotting-rig', minDays: 7 },
+  { name: 'Hand spot by a coach', modality: 'hand-spot', minDays: null },
+  { name: 'Into the foam pit', modality: 'pit', minDays: null },
+  { name: 'Solo on the trampoline', modality: 'trampoline', minDays: null },
+  { name: 'In a competition routine', modality: 'routine', minDays: null },
+]
+
+/** A record as GET /records/:elementId answers it. */
+export function recordDetail(partial: Partial<RecordDetail> = {}): RecordDetail {
+  return {
+    athleteId,
+    elementId,
+    stepIndex: 0,
+    highestStepIndex: 0,
+    stepReachedOn: '2025-01-10',
+    paused: false,
+    pauseReason: null,
+    plannedStepIndex: null,
+    lastEventOn: '2025-01-10',
+    lastEventId: eventIds[0]!,
+    flagged: false,
+    steps,
+    events: [],
+    ...partial,
+  }
+}
+
+export const wait = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
