@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { athleteListQuerySchema, rosterImportSchema } from '../../shared/schemas/athletes.ts'
 import { progressEventInputSchema } from '../../shared/schemas/progress.ts'
 import type { AppContext } from '../context.ts'
-import { AppError } from '../http/errors.ts'
+import { sendCsv, sendImportResult } from '../http/responses.ts'
 import {
   addAthlete,
   exportRoster,
@@ -49,16 +49,7 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       handler: async (req, res) => {
         const { rows, dryRun } = rosterImportSchema.parse(req.body)
         const result = await importRoster(ctx.db, req.club, rows, dryRun)
-        if (!dryRun && !result.valid) {
-          throw new AppError(
-            422,
-            'invalid_rows',
-            `${new Set(result.errors.map((e) => e.row)).size} rows have problems: nothing was imported.`,
-            result.errors.map((e) => ({ path: `rows.${e.row}.${e.field}`, message: e.message })),
-            { rows: result.errors },
-          )
-        }
-        res.status(dryRun ? 200 : 201).json(result)
+        sendImportResult(res, result, dryRun)
       },
     },
     {
@@ -67,9 +58,7 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       allow: readers,
       handler: async (req, res) => {
         const { squadId } = athleteListQuerySchema.parse(req.query)
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
-        res.setHeader('Content-Disposition', 'attachment; filename="roster.csv"')
-        res.send(await exportRoster(ctx.db, req.club, squadId))
+        sendCsv(res, 'roster.csv', await exportRoster(ctx.db, req.club, squadId))
       },
     },
     {

@@ -9,6 +9,7 @@ import {
 import { publicOrigin, type AppContext } from '../context.ts'
 import { clubs, memberships, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
+import { sendCsv } from '../http/responses.ts'
 import { gapsCsv, headlineCsv, reportPdf } from '../services/audit-exports.ts'
 import {
   boardSummary,
@@ -101,9 +102,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       allow: readers,
       handler: async (req, res) => {
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
-        res.setHeader('Content-Disposition', `attachment; filename="gaps-${report.audit.asOf}.csv"`)
-        res.send(gapsCsv(report))
+        sendCsv(res, `gaps-${report.audit.asOf}.csv`, gapsCsv(report))
       },
     },
     {
@@ -112,12 +111,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       allow: readers,
       handler: async (req, res) => {
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
-        res.setHeader(
-          'Content-Disposition',
-          `attachment; filename="headline-${report.audit.asOf}.csv"`,
-        )
-        res.send(headlineCsv(report))
+        sendCsv(res, `headline-${report.audit.asOf}.csv`, headlineCsv(report))
       },
     },
     {

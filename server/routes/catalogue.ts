@@ -7,7 +7,7 @@ import {
   templateUpdateSchema,
 } from '../../shared/schemas/catalogue.ts'
 import type { AppContext } from '../context.ts'
-import { AppError } from '../http/errors.ts'
+import { sendCsv, sendImportResult } from '../http/responses.ts'
 import {
   createElement,
   deleteElement,
@@ -49,9 +49,7 @@ export function catalogueRoutes(ctx: AppContext): ClubRoute[] {
       path: '/elements/export',
       allow: readers,
       handler: async (req, res) => {
-        res.setHeader('Content-Type', 'text/csv; charset=utf-8')
-        res.setHeader('Content-Disposition', 'attachment; filename="catalogue.csv"')
-        res.send(await exportCsv(ctx.db, req.club.clubId))
+        sendCsv(res, 'catalogue.csv', await exportCsv(ctx.db, req.club.clubId))
       },
     },
     {
@@ -61,16 +59,7 @@ export function catalogueRoutes(ctx: AppContext): ClubRoute[] {
       handler: async (req, res) => {
         const { rows, dryRun } = elementImportSchema.parse(req.body)
         const result = await importElements(ctx.db, req.club, rows, dryRun)
-        if (!dryRun && !result.valid) {
-          throw new AppError(
-            422,
-            'invalid_rows',
-            `${new Set(result.errors.map((e) => e.row)).size} rows have problems: nothing was imported.`,
-            result.errors.map((e) => ({ path: `rows.${e.row}.${e.field}`, message: e.message })),
-            { rows: result.errors },
-          )
-        }
-        res.status(dryRun ? 200 : 201).json(result)
+        sendImportResult(res, result, dryRun)
       },
     },
     {
