@@ -1,6 +1,7 @@
 import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
 import type { Role } from '@shared/domain/club'
 import { useSessionStore } from '@/stores/session'
+import { auditRoutes } from './auditRoutes'
 import { progressRoutes } from './progressRoutes'
 
 declare module 'vue-router' {
@@ -109,6 +110,7 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'No access' },
   },
   ...progressRoutes,
+  ...auditRoutes,
   {
     path: '/:pathMatch(.*)*',
     name: 'not-found',

@@ -1,5 +1,6 @@
 import type { RouteLocationRaw } from 'vue-router'
 import type { Me, MembershipView } from '@shared/schemas/auth'
+import { auditNavItems } from './auditRoutes'
 import { progressNavItems } from './progressRoutes'
 
 export interface NavItem {
@@ -19,7 +20,7 @@ export function navigationItems(me: Me | null, membership: MembershipView | null
   if (membership.role !== 'board') {
     items.push({ key: 'catalogue', label: 'Catalogue', to: { name: 'catalogue' } })
   }
-  items.push(...progressNavItems(membership.role))
+  items.push(...progressNavItems(membership.role), ...auditNavItems(membership.role))
   if (membership.role === 'director') {
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
     if (me.fakeMail) items.push({ key: 'outbox', label: 'Outbox', to: { name: 'outbox' } })

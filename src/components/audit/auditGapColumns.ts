@@ -1,0 +1,64 @@
+import { NTag, type DataTableColumns } from 'naive-ui'
+import { h } from 'vue'
+import type { RankedGap } from '@/stores/auditReport'
+
+export interface AuditGapColumnContext {
+  athleteName: (athleteId: string) => string
+  squadName: (squadId: string) => string
+}
+
+const muted = 'color: var(--tf-muted)'
+
+/** Steps are counted from 1 on screen, as coaches count them; the audit stores indices. */
+const step = (index: number) => `step ${index + 1}`
+
+function counterpartCell(gap: RankedGap) {
+  if (gap.counterpartMissing) {
+    return h(NTag, { size: 'small', type: 'warning' }, () => 'not in the catalogue')
+  }
+  const name = gap.counterpartName ?? 'Counterpart'
+  if (gap.counterpartNeverStarted || gap.counterpartStepIndex === null) {
+    return h('span', [name, h('span', { style: muted }, ' · not started')])
+  }
+  return h('span', [name, h('span', { style: muted }, ` · ${step(gap.counterpartStepIndex)}`)])
+}
+
+/** The ranked gap list: backward elements whose forward counterpart trails. */
+export function auditGapColumns(context: AuditGapColumnContext): DataTableColumns<RankedGap> {
+  return [
+    { title: 'Rank', key: 'rank', width: 70, align: 'right' },
+    {
+      title: 'Athlete',
+      key: 'athleteId',
+      minWidth: 150,
+      render: (g) => context.athleteName(g.athleteId),
+    },
+    {
+      title: 'Squad',
+      key: 'squadId',
+      minWidth: 120,
+      render: (g) => context.squadName(g.squadId),
+    },
+    {
+      title: 'Backward element',
+      key: 'elementName',
+      minWidth: 190,
+      render: (g) =>
+        h('span', [g.elementName, h('span', { style: muted }, ` · ${step(g.stepIndex)}`)]),
+    },
+    {
+      title: 'Forward counterpart',
+      key: 'counterpartName',
+      minWidth: 200,
+      render: counterpartCell,
+    },
+    {
+      title: 'Deficit (steps)',
+      key: 'deficitSteps',
+      width: 120,
+      align: 'right',
+      render: (g) =>
+        h('span', { title: `Weighted by rotation class: ${g.weightedDeficit}` }, g.deficitSteps),
+    },
+  ]
+}
