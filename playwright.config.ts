@@ -31,7 +31,17 @@ export default defineConfig({
       ],
     },
   },
-  projects: [{ name: 'chromium', use: { ...devices['Desktop Chrome'], channel: undefined } }],
+  // Wide enough for the director's whole navigation in one row (narrower screens fold it into a menu).
+  projects: [
+    {
+      name: 'chromium',
+      use: {
+        ...devices['Desktop Chrome'],
+        channel: undefined,
+        viewport: { width: 1680, height: 1000 },
+      },
+    },
+  ],
   webServer: {
     command: 'node --import tsx tests/e2e/serve.ts',
     url: `${baseURL}/api/health`,
