@@ -11,10 +11,9 @@ import { clubs, memberships, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
 import { sendCsv } from '../http/responses.ts'
 import { gapsCsv, headlineCsv, reportPdf } from '../services/audit-exports.ts'
+import { clubAgeThresholds, clubProfiles } from '../services/audit-inputs.ts'
 import {
   boardSummary,
-  clubAgeThresholds,
-  clubProfiles,
   getReport,
   listAudits,
   publish,
