@@ -3,6 +3,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import * as api from '@/api/elements'
 import CatalogueImportDialog from '@/components/catalogue/CatalogueImportDialog.vue'
 import { mountInProviders } from './catalogue-helpers'
+import { chooseCsvFile, importButton } from './import-helpers'
 
 vi.mock('@/api/elements', () => ({
   listElements: vi.fn(async () => []),
@@ -17,17 +18,6 @@ const csv = [
   '',
   'Double back tuck,floor,backward,8,0,tuck,round-off,,"from a round-off, back handspring"',
 ].join('\n')
-
-async function chooseFile(content: string) {
-  const input = document.querySelector<HTMLInputElement>('[data-test="import-file"]')!
-  const file = new File([content], 'elements.csv', { type: 'text/csv' })
-  Object.defineProperty(input, 'files', { value: [file], configurable: true })
-  input.dispatchEvent(new Event('change'))
-  await flushPromises()
-  await flushPromises()
-}
-
-const importButton = () => document.querySelector<HTMLButtonElement>('[data-test="import-submit"]')!
 
 beforeEach(() => {
   vi.mocked(api.importElements).mockReset()
@@ -50,7 +40,7 @@ describe('CatalogueImportDialog', () => {
       created: 0,
     })
     mountInProviders(CatalogueImportDialog, { clubId, show: true })
-    await chooseFile(csv)
+    await chooseCsvFile(csv)
 
     expect(api.importElements).toHaveBeenCalledTimes(1)
     const [sentClub, rows, dryRun] = vi.mocked(api.importElements).mock.calls[0]!
@@ -76,7 +66,7 @@ describe('CatalogueImportDialog', () => {
       .mockResolvedValueOnce({ valid: true, errors: [], created: 3 })
     const { wrapper } = mountInProviders(CatalogueImportDialog, { clubId, show: true })
     expect(importButton().disabled).toBe(true)
-    await chooseFile(csv)
+    await chooseCsvFile(csv)
     expect(document.body.textContent).toContain('Nothing has been saved yet')
     expect(importButton().disabled).toBe(false)
 
@@ -90,7 +80,7 @@ describe('CatalogueImportDialog', () => {
   it('names the columns missing from the header', async () => {
     vi.mocked(api.importElements).mockResolvedValue({ valid: false, errors: [], created: 0 })
     mountInProviders(CatalogueImportDialog, { clubId, show: true })
-    await chooseFile('name,direction\nBack tuck,backward\n')
+    await chooseCsvFile('name,direction\nBack tuck,backward\n')
     expect(document.body.textContent).toContain(
       'The file has no column apparatus, quarterRotations, twists, shape, takeOff, difficultyLetter, notes.',
     )

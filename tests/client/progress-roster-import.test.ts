@@ -3,6 +3,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import * as api from '@/api/athletes'
 import AthletesImportDialog from '@/components/athletes/AthletesImportDialog.vue'
 import { clubId, mountInProviders } from './progress-helpers'
+import { chooseCsvFile, importButton } from './import-helpers'
 
 vi.mock('@/api/athletes', () => ({
   importRoster: vi.fn(),
@@ -14,17 +15,6 @@ const csv = [
   'Mia,Novak,2013,,tumbling',
   'Lena,Ortiz,20x3,Junior tumbling,tumbling',
 ].join('\n')
-
-async function chooseFile(content: string) {
-  const input = document.querySelector<HTMLInputElement>('[data-test="roster-file"]')!
-  const file = new File([content], 'roster.csv', { type: 'text/csv' })
-  Object.defineProperty(input, 'files', { value: [file], configurable: true })
-  input.dispatchEvent(new Event('change'))
-  await flushPromises()
-  await flushPromises()
-}
-
-const importButton = () => document.querySelector<HTMLButtonElement>('[data-test="roster-import"]')!
 
 beforeEach(() => {
   vi.mocked(api.importRoster).mockReset()
@@ -44,13 +34,13 @@ describe('AthletesImportDialog', () => {
     })
     mountInProviders(AthletesImportDialog, { clubId, squadName: 'Junior tumbling', show: true })
     expect(document.body.textContent).toContain('Nothing is saved until every row is valid')
-    await chooseFile(csv)
+    await chooseCsvFile(csv)
 
     const [, rows, dryRun] = vi.mocked(api.importRoster).mock.calls[0]!
     expect(dryRun).toBe(true)
     // A row naming no squad joins the squad on screen.
     expect(rows[0]).toMatchObject({ givenName: 'Mia', squad: 'Junior tumbling' })
-    const errors = document.querySelector('[data-test="roster-errors"]')!.textContent ?? ''
+    const errors = document.querySelector('[data-test="import-errors"]')!.textContent ?? ''
     expect(errors).toContain('birthYear')
     expect(errors).toContain('Enter the birth year as a number')
     expect(importButton().disabled).toBe(true)
@@ -65,7 +55,7 @@ describe('AthletesImportDialog', () => {
       squadName: 'Junior tumbling',
       show: true,
     })
-    await chooseFile(csv.replace('20x3', '2013'))
+    await chooseCsvFile(csv.replace('20x3', '2013'))
     expect(document.body.textContent).toContain('Nothing has been saved yet')
     expect(importButton().disabled).toBe(false)
     importButton().click()
