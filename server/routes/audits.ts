@@ -14,6 +14,8 @@ import { gapsCsv, headlineCsv, reportPdf } from '../services/audit-exports.ts'
 import { clubAgeThresholds, clubProfiles } from '../services/audit-inputs.ts'
 import {
   boardSummary,
+  createProfile,
+  deleteProfile,
   getReport,
   listAudits,
   publish,
@@ -25,6 +27,12 @@ import type { ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such audit.') })
 const readers = ['director', 'coach', 'clinician'] as const
+// A malformed id names no profile: it gets the 404 of any unknown one, not a 400.
+const profileId = (raw: unknown) => {
+  const id = requirementProfileSchema.shape.id.safeParse(raw)
+  if (!id.success) throw new AppError(404, 'not_found', 'No such requirement profile in this club.')
+  return id.data
+}
 
 /** Audits, their exports and settings, and the board's summary. */
 export function auditRoutes(ctx: AppContext): ClubRoute[] {
@@ -135,12 +143,30 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       handler: async (req, res) => res.json(await clubProfiles(ctx.db, req.club.clubId)),
     },
     {
+      method: 'post',
+      path: '/requirement-profiles',
+      allow: ['director'],
+      handler: async (req, res) =>
+        res
+          .status(201)
+          .json(await createProfile(ctx.db, req.club, requirementProfileSchema.parse(req.body))),
+    },
+    {
       method: 'put',
       path: '/requirement-profiles/:id',
       allow: ['director'],
       handler: async (req, res) => {
         const input = requirementProfileSchema.parse({ ...req.body, id: req.params.id })
         res.json(await saveProfile(ctx.db, req.club, input))
+      },
+    },
+    {
+      method: 'delete',
+      path: '/requirement-profiles/:id',
+      allow: ['director'],
+      handler: async (req, res) => {
+        await deleteProfile(ctx.db, req.club, profileId(req.params.id))
+        res.status(204).end()
       },
     },
     {

@@ -56,23 +56,59 @@ export async function installAuditDefaults(db: DbOrTx, clubId: string) {
   )
 }
 
-export async function saveProfile(db: DbOrTx, access: ClubAccess, input: RequirementProfileInput) {
-  const values = {
-    label: input.label,
-    discipline: input.discipline,
-    categories: input.categories,
-    source: input.source,
-    requirements: input.requirements,
-    updatedAt: new Date(),
-  }
-  await db
+const profileValues = (input: RequirementProfileInput) => ({
+  label: input.label,
+  discipline: input.discipline,
+  categories: input.categories,
+  source: input.source,
+  requirements: input.requirements,
+})
+const profileKey = (clubId: string, id: string) =>
+  and(eq(requirementProfiles.clubId, clubId), eq(requirementProfiles.id, id))
+const noSuchProfile = () => notFound('No such requirement profile in this club.')
+
+/**
+ * A new requirement profile. An id the club already uses is refused (409, naming the field)
+ * rather than overwritten: two directors creating at once must not lose one of the profiles.
+ */
+export async function createProfile(
+  db: DbOrTx,
+  access: ClubAccess,
+  input: RequirementProfileInput,
+) {
+  const inserted = await db
     .insert(requirementProfiles)
-    .values({ clubId: access.clubId, id: input.id, ...values })
-    .onConflictDoUpdate({
-      target: [requirementProfiles.clubId, requirementProfiles.id],
-      set: values,
-    })
+    .values({ clubId: access.clubId, id: input.id, ...profileValues(input) })
+    .onConflictDoNothing({ target: [requirementProfiles.clubId, requirementProfiles.id] })
+    .returning({ id: requirementProfiles.id })
+  if (inserted.length === 0) {
+    const message = `A requirement profile with the id “${input.id}” already exists in this club.`
+    throw new AppError(409, 'profile_exists', message, [{ path: 'id', message }])
+  }
   return (await clubProfiles(db, access.clubId)).find((p) => p.id === input.id)!
+}
+
+/** Edits a profile that exists; an unknown id is a 404, so an edit never recreates a deleted one. */
+export async function saveProfile(db: DbOrTx, access: ClubAccess, input: RequirementProfileInput) {
+  const updated = await db
+    .update(requirementProfiles)
+    .set({ ...profileValues(input), updatedAt: new Date() })
+    .where(profileKey(access.clubId, input.id))
+    .returning({ id: requirementProfiles.id })
+  if (updated.length === 0) throw noSuchProfile()
+  return (await clubProfiles(db, access.clubId)).find((p) => p.id === input.id)!
+}
+
+/**
+ * Deletes a profile. Stored audits are not touched: they hold their readiness results, not a
+ * reference to the profile, so they read the same afterwards.
+ */
+export async function deleteProfile(db: DbOrTx, access: ClubAccess, id: string) {
+  const deleted = await db
+    .delete(requirementProfiles)
+    .where(profileKey(access.clubId, id))
+    .returning({ id: requirementProfiles.id })
+  if (deleted.length === 0) throw noSuchProfile()
 }
 
 export async function saveAgeThresholds(

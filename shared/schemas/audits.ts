@@ -72,11 +72,14 @@ const requirementSchema = z.object({
   minStepIndex: z.union([z.number().int().min(0), z.literal('competition-ready')]),
 })
 
-/** PUT /requirement-profiles/:id */
+/**
+ * POST /requirement-profiles creates (409 when the id is taken); PUT /requirement-profiles/:id
+ * edits one that exists. The client derives the id from the name (`profileIdFromLabel`).
+ */
 export const requirementProfileSchema = z.object({
   id: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Use lower-case letters, digits and dashes.'),
   label: z.string().trim().min(1, 'Name the profile.').max(200),
-  discipline: z.enum(disciplines),
+  discipline: z.enum(disciplines, 'Choose a discipline.'),
   categories: z.array(z.enum(ageCategories)).min(1, 'Choose at least one category.'),
   source: z.string().trim().min(1, 'Name the source, or write "from memory".').max(300),
   requirements: z

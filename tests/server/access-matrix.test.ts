@@ -5,9 +5,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Role } from '../../shared/domain/club.ts'
 import type { Database } from '../../server/db/client.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
-import { runAndStore } from '../../server/services/audits.ts'
+import { createProfile, runAndStore } from '../../server/services/audits.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
+import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
@@ -95,6 +96,10 @@ const profile = {
       minStepIndex: 'competition-ready',
     },
   ],
+}
+async function throwawayProfile(f: Fixture) {
+  const input = requirementProfileSchema.parse({ ...profile, id: `matrix-${unique()}` })
+  return (await createProfile(f.db.db, directorAccess(f), input)).id
 }
 const oneStep = [
   { name: 'Competition-ready', modality: 'routine', criterion: 'In a routine twice.' },
@@ -388,10 +393,26 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async () => ({ path: '/requirement-profiles' }),
   },
+  'POST /requirement-profiles': {
+    allow: ['director'],
+    ok: 201,
+    request: async () => ({
+      path: '/requirement-profiles',
+      body: { ...profile, id: `new-${unique()}` },
+    }),
+  },
   'PUT /requirement-profiles/:id': {
     allow: ['director'],
     ok: 200,
-    request: async () => ({ path: '/requirement-profiles/test-profile', body: profile }),
+    request: async (f) => ({
+      path: `/requirement-profiles/${await throwawayProfile(f)}`,
+      body: profile,
+    }),
+  },
+  'DELETE /requirement-profiles/:id': {
+    allow: ['director'],
+    ok: 204,
+    request: async (f) => ({ path: `/requirement-profiles/${await throwawayProfile(f)}` }),
   },
   'GET /age-thresholds': {
     allow: readers,
