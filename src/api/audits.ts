@@ -46,11 +46,20 @@ export const listAuditSquads = (clubId: string) =>
 
 export const listRequirementProfiles = (clubId: string) =>
   request<RequirementProfile[]>(`${club(clubId)}/requirement-profiles`)
+/** Creates a profile; a 409 `profile_exists` when the club already uses its id. */
+export const createRequirementProfile = (clubId: string, input: RequirementProfileInput) =>
+  request<RequirementProfile>(`${club(clubId)}/requirement-profiles`, {
+    method: 'POST',
+    body: input,
+  })
+/** Edits a profile that exists (404 otherwise). */
 export const saveRequirementProfile = (clubId: string, input: RequirementProfileInput) =>
   request<RequirementProfile>(`${club(clubId)}/requirement-profiles/${input.id}`, {
     method: 'PUT',
     body: input,
   })
+export const deleteRequirementProfile = (clubId: string, id: string) =>
+  request<void>(`${club(clubId)}/requirement-profiles/${id}`, { method: 'DELETE' })
 export const getAgeThresholds = (clubId: string) =>
   request<AgeThresholdTable>(`${club(clubId)}/age-thresholds`)
 export const saveAgeThresholds = (clubId: string, discipline: Discipline, input: AgeThresholds) =>
