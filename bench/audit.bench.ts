@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { performance } from 'node:perf_hooks'
+import type { DbOrTx } from '../server/db/client.ts'
 import { athletes, elements, progressEvents } from '../server/db/schema.ts'
 import { createAthlete } from '../server/services/athletes.ts'
 import { gatherInputs } from '../server/services/audit-inputs.ts'
@@ -11,6 +12,73 @@ import { appendHistory, replayColumns, type HistoryEvent } from '../server/servi
 import { createSquad } from '../server/services/squads.ts'
 import { report, time, withBenchDatabase } from './harness.ts'
 
+export const auditBenchAsOf = '2026-11-30'
+
+/**
+ * Builds the benchmark club through the services: 300 elements, 10 squads, 1,000 athletes with
+ * 100 records each, every record climbing 4 steps (400,000 events).
+ */
+export async function buildAuditClub(db: DbOrTx) {
+  const club = await createClub(db, { name: 'Bench club', slug: 'bench-audit' })
+  const user = await createUser(db, { email: 'audit@bench.invalid', name: 'Bench' })
+  await addMembership(db, { clubId: club.id, userId: user.id, role: 'director' })
+  const access = { clubId: club.id, userId: user.id, role: 'director' as const }
+  for (let i = (await listElements(db, club.id)).length; i < 300; i++) {
+    await createElement(db, access, {
+      name: `Bench element ${i}`,
+      apparatus: `bench-${Math.floor(i / 2)}`,
+      direction: i % 2 ? 'forward' : 'backward',
+      quarterRotations: 4 * (1 + (i % 3)),
+      twists: Array.from({ length: 1 + (i % 3) }, () => 0),
+      shape: 'tuck',
+      takeOff: 'standing',
+    })
+  }
+  const catalogue = await listElements(db, club.id)
+  const squadIds: string[] = []
+  for (let s = 0; s < 10; s++) {
+    squadIds.push(
+      (
+        await createSquad(db, club.id, {
+          name: `Squad ${s}`,
+          level: 'junior',
+          discipline: 'artistic-women',
+        })
+      ).id,
+    )
+  }
+  for (let chunk = 0; chunk < 10; chunk++) {
+    const history: HistoryEvent[] = []
+    for (let a = chunk * 100; a < (chunk + 1) * 100; a++) {
+      const athlete = await createAthlete(db, club.id, {
+        givenName: 'Bench',
+        familyName: `Athlete ${a}`,
+        birthYear: 2008 + (a % 10),
+        squadId: squadIds[a % 10]!,
+        discipline: 'artistic-women',
+      })
+      // 100 records per athlete, 4 events each
+      for (let k = 0; k < 100; k++) {
+        const element = catalogue[(a * 7 + k * 3) % catalogue.length]!
+        for (let step = 0; step < 4; step++) {
+          history.push({
+            athleteId: athlete.id,
+            elementId: element.id,
+            coachId: user.id,
+            change: {
+              kind: 'step',
+              stepIndex: step,
+              occurredOn: `2026-0${1 + step * 2}-1${k % 10}`,
+            },
+          })
+        }
+      }
+    }
+    await appendHistory(db, club.id, history)
+  }
+  return { access, elementCount: catalogue.length }
+}
+
 /**
  * The audit of a club of 1,000 athletes × 300 elements (100,000 records built from about 400,000
  * events); target under 2 s. Beside it: only reading the same rows from PostgreSQL.
@@ -19,81 +87,24 @@ export default async function auditBench() {
   await withBenchDatabase(async (database) => {
     const db = database.db
     const build = performance.now()
-    const club = await createClub(db, { name: 'Bench club', slug: 'bench-audit' })
-    const user = await createUser(db, { email: 'audit@bench.invalid', name: 'Bench' })
-    await addMembership(db, { clubId: club.id, userId: user.id, role: 'director' })
-    const access = { clubId: club.id, userId: user.id, role: 'director' as const }
-    for (let i = (await listElements(db, club.id)).length; i < 300; i++) {
-      await createElement(db, access, {
-        name: `Bench element ${i}`,
-        apparatus: `bench-${Math.floor(i / 2)}`,
-        direction: i % 2 ? 'forward' : 'backward',
-        quarterRotations: 4 * (1 + (i % 3)),
-        twists: Array.from({ length: 1 + (i % 3) }, () => 0),
-        shape: 'tuck',
-        takeOff: 'standing',
-      })
-    }
-    const catalogue = await listElements(db, club.id)
-    const squadIds: string[] = []
-    for (let s = 0; s < 10; s++) {
-      squadIds.push(
-        (
-          await createSquad(db, club.id, {
-            name: `Squad ${s}`,
-            level: 'junior',
-            discipline: 'artistic-women',
-          })
-        ).id,
-      )
-    }
-    for (let chunk = 0; chunk < 10; chunk++) {
-      const history: HistoryEvent[] = []
-      for (let a = chunk * 100; a < (chunk + 1) * 100; a++) {
-        const athlete = await createAthlete(db, club.id, {
-          givenName: 'Bench',
-          familyName: `Athlete ${a}`,
-          birthYear: 2008 + (a % 10),
-          squadId: squadIds[a % 10]!,
-          discipline: 'artistic-women',
-        })
-        // 100 records per athlete, 4 events each
-        for (let k = 0; k < 100; k++) {
-          const element = catalogue[(a * 7 + k * 3) % catalogue.length]!
-          for (let step = 0; step < 4; step++) {
-            history.push({
-              athleteId: athlete.id,
-              elementId: element.id,
-              coachId: user.id,
-              change: {
-                kind: 'step',
-                stepIndex: step,
-                occurredOn: `2026-0${1 + step * 2}-1${k % 10}`,
-              },
-            })
-          }
-        }
-      }
-      await appendHistory(db, club.id, history)
-    }
-    const [events] = await db
-      .$count(progressEvents, eq(progressEvents.clubId, club.id))
-      .then((n) => [n])
+    const { access, elementCount } = await buildAuditClub(db)
+    const clubId = access.clubId
+    const events = await db.$count(progressEvents, eq(progressEvents.clubId, clubId))
     console.log(
-      `\naudit: ${catalogue.length} elements × 1000 athletes, ${events} events (built in ${((performance.now() - build) / 1000).toFixed(0)} s)`,
+      `\naudit: ${elementCount} elements × 1000 athletes, ${events} events (built in ${((performance.now() - build) / 1000).toFixed(0)} s)`,
     )
 
     const audit = await time(
-      () => runAndStore(db, access, { squadId: null, asOf: '2026-11-30' }),
+      () => runAndStore(db, access, { squadId: null, asOf: auditBenchAsOf }),
       5,
       1,
     )
     const read = await time(
       () =>
         Promise.all([
-          db.select(replayColumns).from(progressEvents).where(eq(progressEvents.clubId, club.id)),
-          db.select().from(elements).where(eq(elements.clubId, club.id)),
-          db.select().from(athletes).where(eq(athletes.clubId, club.id)),
+          db.select(replayColumns).from(progressEvents).where(eq(progressEvents.clubId, clubId)),
+          db.select().from(elements).where(eq(elements.clubId, clubId)),
+          db.select().from(athletes).where(eq(athletes.clubId, clubId)),
         ]),
       5,
       1,
@@ -104,7 +115,7 @@ export default async function auditBench() {
       read,
       'reading its rows',
     )
-    const gather = await time(() => gatherInputs(db, club.id, null, '2026-11-30'), 3, 1)
+    const gather = await time(() => gatherInputs(db, clubId, null, auditBenchAsOf), 3, 1)
     report('  of which gathering the inputs', gather, read, 'reading its rows')
   })
 }

@@ -1,6 +1,7 @@
 import { fileURLToPath } from 'node:url'
 import { createDatabase } from '../db/client.ts'
 import { applyMigrations } from '../db/migrate.ts'
+import { backfillRecordTimelines } from '../services/progress.ts'
 import { seedDemoIfEmpty } from '../../seed/demo.ts'
 import {
   clusterUrl,
@@ -32,11 +33,15 @@ export async function localDatabase(databaseUrl: string | undefined): Promise<Lo
   return { url: clusterUrl(cluster, 'twofold'), cluster: started ? cluster : undefined }
 }
 
-/** Applies migrations and loads the demo club into an empty database. Safe to run every start. */
+/**
+ * Applies migrations, fills in data that a migration added a place for, and loads the demo club
+ * into an empty database. Safe to run every start.
+ */
 export async function prepareDatabase(url: string, options: { seed?: boolean; today?: Date } = {}) {
   const database = createDatabase(url)
   try {
     await applyMigrations(database.db)
+    await backfillRecordTimelines(database.db)
     return options.seed === false
       ? null
       : await seedDemoIfEmpty(database.db, { today: options.today })

@@ -23,7 +23,11 @@ import {
   takeOffs,
   twistBands,
 } from '../../shared/domain/element.ts'
-import { pauseReasons, progressEventKinds } from '../../shared/domain/progress.ts'
+import {
+  pauseReasons,
+  progressEventKinds,
+  type TimelinePoint,
+} from '../../shared/domain/progress.ts'
 
 // Every table of club data carries club_id and puts it first in its keys and foreign keys, so
 // that rows of one club can never point at another club's rows.
@@ -373,6 +377,12 @@ export const progressRecords = pgTable(
     pauseReason: pauseReasonEnum(),
     plannedStepIndex: integer(),
     lastEventOn: date(),
+    /**
+     * The steps at the end of each day they changed (shared/domain/progress.ts `TimelinePoint`),
+     * so that an audit as of any date reads one row per record instead of replaying its events.
+     * Null only on rows written before the column existed, until the start-up backfill.
+     */
+    timeline: jsonb().$type<TimelinePoint[]>(),
     /** The newest event of the record: a writer that saw another one is told of the conflict. */
     lastEventId: uuid(),
     flagged: boolean().notNull().default(false),

@@ -1,23 +1,21 @@
-// What an audit reads, as of a date: the catalogue, the athletes of the scope and each record
-// replayed from its events. Kept apart from running and storing audits because it is the part
-// whose speed matters (see bench/audit.bench.ts).
+// What an audit reads, as of a date: the catalogue, the athletes of the scope and each record's
+// steps as of that date. Kept apart from running and storing audits because it is the part whose
+// speed matters (see bench/audit.bench.ts).
 
-import { and, asc, eq, inArray, isNull, lte } from 'drizzle-orm'
+import { and, asc, eq, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
-import type { AuditInputs, RequirementProfile } from '../../shared/domain/audit.ts'
-import { athletePace, replayRecord, type ProgressEvent } from '../../shared/domain/progress.ts'
+import type { AuditInputs, AuditRecord, RequirementProfile } from '../../shared/domain/audit.ts'
+import { stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
   ageThresholds,
   athletes,
-  elementStepMaps,
   elementSteps,
-  elements,
-  progressEvents,
+  progressRecords,
   requirementProfiles,
 } from '../db/schema.ts'
 import { listElements } from './catalogue.ts'
-import { replayColumns, toDomainEvent } from './progress.ts'
+import { replayedTimeline } from './progress.ts'
 
 export async function clubProfiles(db: DbOrTx, clubId: string): Promise<RequirementProfile[]> {
   const rows = await db
@@ -49,8 +47,12 @@ export async function clubAgeThresholds(db: DbOrTx, clubId: string): Promise<Age
 
 /**
  * Everything the audit reads, as of a date: the catalogue, the athletes of the scope, each
- * record replayed from its events up to that date (highest step reached, in today's steps), the
- * athletes' recent pace, the club's profiles and age bands.
+ * record's highest step reached by that date (in today's steps), the athletes' recent pace, the
+ * club's profiles and age bands.
+ *
+ * The steps come from each record's stored timeline, which is the replay of all its events
+ * (corrections included, wherever they fall), so no event is read here: the result is the same
+ * as replaying the events as of the date (tests/shared/progress.test.ts checks that equivalence).
  */
 export async function gatherInputs(
   db: DbOrTx,
@@ -58,13 +60,17 @@ export async function gatherInputs(
   squadId: string | null,
   asOf: string,
 ): Promise<AuditInputs> {
-  const [catalogue, stepRows, maps, roster, profiles, thresholds] = await Promise.all([
+  const inRoster = and(
+    eq(athletes.clubId, clubId),
+    isNull(athletes.archivedAt),
+    squadId ? eq(athletes.squadId, squadId) : undefined,
+  )
+  const [catalogue, stepRows, roster, recordRows, profiles, thresholds] = await Promise.all([
     listElements(db, clubId),
     db
       .select({ elementId: elementSteps.elementId, position: elementSteps.position })
       .from(elementSteps)
       .where(eq(elementSteps.clubId, clubId)),
-    db.select().from(elementStepMaps).where(eq(elementStepMaps.clubId, clubId)),
     db
       .select({
         id: athletes.id,
@@ -73,61 +79,45 @@ export async function gatherInputs(
         discipline: athletes.discipline,
       })
       .from(athletes)
-      .where(
+      .where(inRoster),
+    db
+      .select({
+        athleteId: progressRecords.athleteId,
+        elementId: progressRecords.elementId,
+        timeline: progressRecords.timeline,
+      })
+      .from(progressRecords)
+      .innerJoin(
+        athletes,
         and(
-          eq(athletes.clubId, clubId),
-          isNull(athletes.archivedAt),
-          squadId ? eq(athletes.squadId, squadId) : undefined,
+          eq(athletes.clubId, progressRecords.clubId),
+          eq(athletes.id, progressRecords.athleteId),
         ),
-      ),
+      )
+      .where(and(eq(progressRecords.clubId, clubId), inRoster)),
     clubProfiles(db, clubId),
     clubAgeThresholds(db, clubId),
   ])
   const stepCount = new Map<string, number>()
   for (const s of stepRows)
     stepCount.set(s.elementId, Math.max(stepCount.get(s.elementId) ?? 0, s.position + 1))
-  const versions = new Map<string, { stepsVersion: number; maps: Map<number, number[]> }>()
-  const elementRows = await db
-    .select({ id: elements.id, stepsVersion: elements.stepsVersion })
-    .from(elements)
-    .where(eq(elements.clubId, clubId))
-  for (const e of elementRows) versions.set(e.id, { stepsVersion: e.stepsVersion, maps: new Map() })
-  for (const m of maps) versions.get(m.elementId)?.maps.set(m.fromVersion, m.mapping)
 
   const inScope = new Set(roster.map((a) => a.id))
-  const eventRows = await db
-    .select(replayColumns)
-    .from(progressEvents)
-    .where(
-      and(
-        eq(progressEvents.clubId, clubId),
-        lte(progressEvents.occurredOn, asOf),
-        squadId && roster.length > 0 ? inArray(progressEvents.athleteId, [...inScope]) : undefined,
-      ),
-    )
-  const histories = new Map<string, ProgressEvent[]>()
-  for (const row of eventRows) {
-    if (!inScope.has(row.athleteId)) continue
-    const key = `${row.athleteId}|${row.elementId}`
-    let list = histories.get(key)
-    if (!list) histories.set(key, (list = []))
-    list.push(toDomainEvent(row, versions.get(row.elementId)!))
-  }
-  const records: AuditInputs['records'][number][] = []
-  const byAthlete = new Map<string, ProgressEvent[][]>()
-  for (const [key, events] of histories) {
-    const [athleteId, elementId] = key.split('|') as [string, string]
-    records.push({
-      athleteId,
-      elementId,
-      stepIndex: replayRecord(events, { asOf }).highestStepIndex,
-    })
-    let list = byAthlete.get(athleteId)
-    if (!list) byAthlete.set(athleteId, (list = []))
-    list.push(events)
-  }
+  const records: AuditRecord[] = []
   const paces: Record<string, number> = {}
-  for (const [athleteId, list] of byAthlete) paces[athleteId] = athletePace(list, asOf)
+  for (const row of recordRows) {
+    if (!inScope.has(row.athleteId)) continue
+    const timeline =
+      row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))
+    const reached = stepsAsOf(timeline, asOf)
+    if (reached === null) continue
+    records.push({
+      athleteId: row.athleteId,
+      elementId: row.elementId,
+      stepIndex: reached.highestStepIndex,
+    })
+    paces[row.athleteId] = (paces[row.athleteId] ?? 0) + timelinePace(timeline, asOf)
+  }
   return {
     asOf,
     elements: catalogue.map((e) => ({

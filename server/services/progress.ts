@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
+import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gapDeficit } from '../../shared/domain/audit.ts'
 import {
   checkEvent,
@@ -6,6 +6,7 @@ import {
   type CheckResult,
   type PrerequisiteStatus,
   type ProgressEvent,
+  type ProgressRecord,
   type ProposedEvent,
 } from '../../shared/domain/progress.ts'
 import { translateStepIndex } from '../../shared/domain/step-versions.ts'
@@ -148,6 +149,20 @@ function recordView(row: RecordRow | undefined, athleteId: string, elementId: st
   }
 }
 
+/** The columns of progress_records that come straight from a replay. */
+function storedState(record: ProgressRecord) {
+  return {
+    stepIndex: record.stepIndex,
+    highestStepIndex: record.highestStepIndex,
+    stepReachedOn: record.stepReachedOn,
+    paused: record.paused,
+    pauseReason: record.pauseReason,
+    plannedStepIndex: record.plannedStepIndex,
+    lastEventOn: record.lastEventOn,
+    timeline: record.timeline,
+  }
+}
+
 /** Rebuilds the stored state of one record from its events. */
 async function recompute(db: DbOrTx, clubId: string, athleteId: string, element: ElementContext) {
   const rows = await eventRows(db, clubId, athleteId, element.id)
@@ -157,13 +172,7 @@ async function recompute(db: DbOrTx, clubId: string, athleteId: string, element:
   )[0]
   const effective = new Set(record.history.map((e) => e.id))
   const values = {
-    stepIndex: record.stepIndex,
-    highestStepIndex: record.highestStepIndex,
-    stepReachedOn: record.stepReachedOn,
-    paused: record.paused,
-    pauseReason: record.pauseReason,
-    plannedStepIndex: record.plannedStepIndex,
-    lastEventOn: record.lastEventOn,
+    ...storedState(record),
     lastEventId: newest?.id ?? null,
     flagged: rows.some((r) => r.flagged && effective.has(r.id)),
     updatedAt: new Date(),
@@ -177,6 +186,41 @@ async function recompute(db: DbOrTx, clubId: string, athleteId: string, element:
     })
     .returning()
   return recordView(saved, athleteId, element.id)
+}
+
+/**
+ * A record's timeline replayed from its events, for a row stored before timelines were kept
+ * (the start-up backfill normally leaves none).
+ */
+export async function replayedTimeline(
+  db: DbOrTx,
+  clubId: string,
+  athleteId: string,
+  elementId: string,
+) {
+  const element = await elementContext(db, clubId, elementId)
+  const rows = await eventRows(db, clubId, athleteId, elementId)
+  return replayRecord(rows.map((r) => toDomainEvent(r, element))).timeline
+}
+
+/** Fills in the timeline of every record stored before timelines were kept; returns how many. */
+export async function backfillRecordTimelines(db: DbOrTx) {
+  const missing = await db
+    .select({
+      clubId: progressRecords.clubId,
+      athleteId: progressRecords.athleteId,
+      elementId: progressRecords.elementId,
+    })
+    .from(progressRecords)
+    .where(isNull(progressRecords.timeline))
+  const contexts = new Map<string, ElementContext>()
+  for (const { clubId, athleteId, elementId } of missing) {
+    const key = `${clubId}|${elementId}`
+    let element = contexts.get(key)
+    if (!element) contexts.set(key, (element = await elementContext(db, clubId, elementId)))
+    await recompute(db, clubId, athleteId, element)
+  }
+  return missing.length
 }
 
 /** After the steps of an element change: every record on it read through the new mapping. */
@@ -645,7 +689,8 @@ export interface HistoryEvent {
 /**
  * Appends a whole history at once, in the caller's transaction: each record's events are checked
  * in date order by the same rules as a single event (prerequisites aside: they depend on the
- * order records are loaded in), then inserted and the records rebuilt, in a few bulk statements.
+ * order records are loaded in), after any events the record already has, then inserted and the
+ * records rebuilt, in a few bulk statements.
  */
 export async function appendHistory(db: DbOrTx, clubId: string, history: HistoryEvent[]) {
   const elementRows = await db
@@ -679,20 +724,51 @@ export async function appendHistory(db: DbOrTx, clubId: string, history: History
     if (!version.has(event.elementId))
       throw notFound('An event names an element that is not in the catalogue.')
     const key = `${event.athleteId}|${event.elementId}`
-    byRecord.set(key, [...(byRecord.get(key) ?? []), event])
+    let list = byRecord.get(key)
+    if (!list) byRecord.set(key, (list = []))
+    list.push(event)
   }
+  // Records that already have events carry on from them: the checks see the record as it
+  // stands, and the stored record is rebuilt from the old events and the new ones together.
+  const athleteIds = [...new Set(history.map((e) => e.athleteId))]
+  const earlier = new Map<string, EventRow[]>()
+  if (athleteIds.length > 0) {
+    const existing = await db
+      .select()
+      .from(progressEvents)
+      .where(and(eq(progressEvents.clubId, clubId), inArray(progressEvents.athleteId, athleteIds)))
+    for (const row of existing) {
+      const key = `${row.athleteId}|${row.elementId}`
+      if (!byRecord.has(key)) continue
+      let list = earlier.get(key)
+      if (!list) earlier.set(key, (list = []))
+      list.push(row)
+    }
+  }
+  const contexts = new Map<string, ElementContext>()
+  const contextOf = async (elementId: string) => {
+    let element = contexts.get(elementId)
+    if (!element) contexts.set(elementId, (element = await elementContext(db, clubId, elementId)))
+    return element
+  }
+
   const rows: (typeof progressEvents.$inferInsert)[] = []
   const records: (typeof progressRecords.$inferInsert)[] = []
   let sequence = 0
   const base = Date.now() - history.length * 1000
-  for (const events of byRecord.values()) {
+  for (const [key, events] of byRecord) {
     events.sort((a, b) => a.change.occurredOn.localeCompare(b.change.occurredOn))
-    const domain: ProgressEvent[] = []
-    let flagged = false
+    const before = earlier.get(key) ?? []
+    const element = before.length > 0 ? await contextOf(events[0]!.elementId) : null
+    const domain: ProgressEvent[] = before.map((r) => toDomainEvent(r, element!))
+    const flaggedIds = new Set(before.filter((r) => r.flagged).map((r) => r.id))
+    // Entered after everything the record already holds, in the order given.
+    let enteredAt = before.reduce((latest, r) => Math.max(latest, r.recordedAt.getTime()), 0)
     for (const event of events) {
       const { change } = event
       const id = crypto.randomUUID()
-      const recordedAt = new Date(base + sequence++ * 1000)
+      enteredAt = Math.max(base + sequence++ * 1000, enteredAt + 1)
+      const recordedAt = new Date(enteredAt)
       const current = replayRecord(domain)
       const checks = checkEvent(current, change, {
         steps: steps.get(event.elementId) ?? [],
@@ -722,6 +798,8 @@ export async function appendHistory(db: DbOrTx, clubId: string, history: History
               }
             : { ...meta, kind: 'resume' },
       )
+      const flagged = checks.some((c) => c.code !== 'lost-skill-step-down')
+      if (flagged) flaggedIds.add(id)
       rows.push({
         clubId,
         id,
@@ -738,9 +816,8 @@ export async function appendHistory(db: DbOrTx, clubId: string, history: History
         note: event.note ?? null,
         skipReason: change.skipReason ?? null,
         checks,
-        flagged: checks.some((c) => c.code !== 'lost-skill-step-down'),
+        flagged,
       })
-      flagged ||= rows.at(-1)!.flagged === true
     }
     const record = replayRecord(domain)
     const first = events[0]!
@@ -748,24 +825,30 @@ export async function appendHistory(db: DbOrTx, clubId: string, history: History
       clubId,
       athleteId: first.athleteId,
       elementId: first.elementId,
-      stepIndex: record.stepIndex,
-      highestStepIndex: record.highestStepIndex,
-      stepReachedOn: record.stepReachedOn,
-      paused: record.paused,
-      pauseReason: record.pauseReason,
-      plannedStepIndex: record.plannedStepIndex,
-      lastEventOn: record.lastEventOn,
+      ...storedState(record),
       lastEventId: domain.at(-1)!.id,
-      flagged,
+      flagged: record.history.some((e) => flaggedIds.has(e.id)),
     })
   }
   for (let i = 0; i < rows.length; i += 1000)
     await db.insert(progressEvents).values(rows.slice(i, i + 1000))
+  // A record that existed takes the rebuilt state: every column the insert names but its key.
+  const rebuilt = Object.keys(records[0] ?? {}).filter(
+    (key) => !['clubId', 'athleteId', 'elementId'].includes(key),
+  )
+  const excluded = (key: string) =>
+    sql.raw(`excluded.${key.replace(/[A-Z]/g, (c) => `_${c.toLowerCase()}`)}`)
   for (let i = 0; i < records.length; i += 1000) {
     await db
       .insert(progressRecords)
       .values(records.slice(i, i + 1000))
-      .onConflictDoNothing()
+      .onConflictDoUpdate({
+        target: [progressRecords.clubId, progressRecords.athleteId, progressRecords.elementId],
+        set: {
+          ...Object.fromEntries(rebuilt.map((key) => [key, excluded(key)])),
+          updatedAt: new Date(),
+        },
+      })
   }
   return { events: rows.length, records: records.length }
 }

@@ -54,6 +54,21 @@ export interface ProgressRecord {
   lastEventOn: string | null
   /** The effective events in replay order: voided ones and those after `asOf` left out. */
   history: ProgressEvent[]
+  /** The record's steps at the end of each day they changed, oldest first (see {@link stepsAsOf}). */
+  timeline: TimelinePoint[]
+}
+
+/**
+ * The record's step and highest step at the end of a day on which either changed. A replay as of
+ * any date is the replay of a prefix of the history (events are ordered by the day they occurred
+ * first), so the last point on or before a date gives the steps as of that date without reading
+ * the events again.
+ */
+export interface TimelinePoint {
+  /** ISO date (YYYY-MM-DD). */
+  on: string
+  stepIndex: number
+  highestStepIndex: number
 }
 
 const msPerDay = 86_400_000
@@ -139,12 +154,19 @@ export function replayRecord(
     plannedStepIndex: null,
     lastEventOn: null,
     history,
+    timeline: [],
   }
+  const { timeline } = record
   const moveTo = (stepIndex: number, on: string) => {
     if (record.stepIndex === stepIndex) return
     record.stepIndex = stepIndex
     record.stepReachedOn = on
     record.highestStepIndex = Math.max(record.highestStepIndex ?? stepIndex, stepIndex)
+    // Several changes on one day leave one point: the steps at the end of that day.
+    const last = timeline.at(-1)
+    const point = { on, stepIndex, highestStepIndex: record.highestStepIndex }
+    if (last?.on === on) timeline[timeline.length - 1] = point
+    else timeline.push(point)
   }
 
   for (const event of history) {
@@ -336,10 +358,32 @@ function capitalise(text: string): string {
  * a fast one.
  */
 export function pace(events: readonly ProgressEvent[], asOf: string, windowDays = 180): number {
+  return timelinePace(replayRecord(events).timeline, asOf, windowDays)
+}
+
+/** {@link pace} from a record's timeline. */
+export function timelinePace(
+  timeline: readonly TimelinePoint[],
+  asOf: string,
+  windowDays = 180,
+): number {
   if (windowDays <= 0) return 0
-  const start = replayRecord(events, { asOf: addDays(asOf, -windowDays) }).stepIndex ?? -1
-  const end = replayRecord(events, { asOf }).stepIndex ?? -1
+  const start = stepsAsOf(timeline, addDays(asOf, -windowDays))?.stepIndex ?? -1
+  const end = stepsAsOf(timeline, asOf)?.stepIndex ?? -1
   return ((end - start) / windowDays) * 30
+}
+
+/**
+ * The record's steps at the end of `asOf`, from its timeline: the same step and highest step as
+ * `replayRecord(events, { asOf })`. Null when no step had been reached by then.
+ */
+export function stepsAsOf(timeline: readonly TimelinePoint[], asOf: string): TimelinePoint | null {
+  // Timelines are short and audits mostly look at recent dates: search from the end.
+  for (let i = timeline.length - 1; i >= 0; i--) {
+    const point = timeline[i]!
+    if (point.on <= asOf) return point
+  }
+  return null
 }
 
 /** An athlete's pace over all their elements: the sum of the pace on each element's history. */

@@ -1,3 +1,5 @@
+import { uniformInt } from 'pure-rand/distribution/uniformInt'
+import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
 import { describe, expect, it } from 'vitest'
 import { safetyCaution } from '../../shared/domain/element.ts'
 import {
@@ -7,6 +9,8 @@ import {
   daysBetween,
   pace,
   replayRecord,
+  stepsAsOf,
+  timelinePace,
   type CheckContext,
   type CheckResult,
   type ProgressChange,
@@ -460,6 +464,91 @@ describe('pace', () => {
     // 4 net steps on one element and 3 on the other: 7 / 180 × 30 = 1.1666…
     const other = [step(0, '2025-02-01'), step(1, '2025-03-01'), step(2, '2025-05-01')]
     expect(athletePace([rebuilt, other], asOf)).toBeCloseTo(7 / 6, 12)
+  })
+})
+
+describe('record timeline', () => {
+  // The audit reads each record's timeline instead of replaying its events as of the audit's
+  // date; these checks hold the two to the same answers. Definitions from the product brief:
+  // common practice (no published source).
+  it('keeps the steps at the end of each day they changed', () => {
+    const record = replayRecord([
+      step(0, '2025-01-10'),
+      step(2, '2025-02-01', { recordedAt: '2025-02-01T10:00:00.000Z' }),
+      // a lower step later the same day: the day ends at step 1, the highest stays 2
+      step(1, '2025-02-01', { recordedAt: '2025-02-01T11:00:00.000Z' }),
+      event({ kind: 'pause', reason: 'lost-skill', plannedStepIndex: 0 }, '2025-03-01'),
+      event({ kind: 'resume' }, '2025-04-01'),
+    ])
+    expect(record.timeline).toEqual([
+      { on: '2025-01-10', stepIndex: 0, highestStepIndex: 0 },
+      { on: '2025-02-01', stepIndex: 1, highestStepIndex: 2 },
+      { on: '2025-04-01', stepIndex: 0, highestStepIndex: 2 },
+    ])
+    expect(stepsAsOf(record.timeline, '2025-01-09')).toBeNull()
+    expect(stepsAsOf(record.timeline, '2025-03-31')).toEqual({
+      on: '2025-02-01',
+      stepIndex: 1,
+      highestStepIndex: 2,
+    })
+  })
+
+  it('leaves out a voided event even when the correction comes after the date asked for', () => {
+    const record = replayRecord([
+      step(0, '2025-01-10'),
+      step(4, '2025-02-01', { id: 'slip' }),
+      step(1, '2025-06-01', { correctsEventId: 'slip', recordedAt: '2025-06-01T08:00:00.000Z' }),
+    ])
+    expect(stepsAsOf(record.timeline, '2025-03-01')?.highestStepIndex).toBe(0)
+    expect(replayRecord(record.history, { asOf: '2025-03-01' }).highestStepIndex).toBe(0)
+  })
+
+  it('answers as a replay as of each date does, over many generated histories', () => {
+    const rng = xoroshiro128plus(2026)
+    const int = (min: number, max: number) => uniformInt(rng, min, max)
+    const reasons = ['lost-skill', 'injury', 'fear', 'other'] as const
+    let compared = 0
+    for (let h = 0; h < 300; h++) {
+      const events: ProgressEvent[] = []
+      const count = int(0, 12)
+      for (let i = 0; i < count; i++) {
+        // few distinct days, so that several events share a day and the order within it matters
+        const on = addDays('2025-01-01', int(0, 40) * 7)
+        const meta: Partial<ProgressEventMeta> = {
+          id: `h${h}-e${i}`,
+          recordedAt: `2025-12-${String(1 + int(0, 2)).padStart(2, '0')}T0${int(0, 9)}:00:00.000Z`,
+        }
+        if (events.length > 0 && int(0, 5) === 0)
+          meta.correctsEventId = events[int(0, events.length - 1)]!.id
+        const kind = int(0, 9)
+        const change: ProgressChange =
+          kind < 6
+            ? { kind: 'step', stepIndex: int(0, 7) }
+            : kind < 8
+              ? {
+                  kind: 'pause',
+                  reason: reasons[int(0, 3)]!,
+                  ...(int(0, 1) ? { plannedStepIndex: int(0, 3) } : {}),
+                }
+              : { kind: 'resume' }
+        events.push(event(change, on, meta))
+      }
+      const { timeline } = replayRecord(events)
+      for (let d = -1; d <= 42; d++) {
+        const asOf = addDays('2025-01-01', d * 7 + int(-3, 3))
+        const replayed = replayRecord(events, { asOf })
+        const point = stepsAsOf(timeline, asOf)
+        expect(point?.stepIndex ?? null).toBe(replayed.stepIndex)
+        expect(point?.highestStepIndex ?? null).toBe(replayed.highestStepIndex)
+        const start = replayRecord(events, { asOf: addDays(asOf, -180) }).stepIndex ?? -1
+        expect(timelinePace(timeline, asOf)).toBeCloseTo(
+          (((replayed.stepIndex ?? -1) - start) / 180) * 30,
+          12,
+        )
+        compared++
+      }
+    }
+    expect(compared).toBe(300 * 44)
   })
 })
 

@@ -1,0 +1,1 @@
+ALTER TABLE "progress_records" ADD COLUMN "timeline" jsonb;

@@ -1,0 +1,162 @@
+import { and, eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Database } from '../../server/db/client.ts'
+import { progressRecords } from '../../server/db/schema.ts'
+import { createAthlete } from '../../server/services/athletes.ts'
+import { gatherInputs } from '../../server/services/audit-inputs.ts'
+import { listElements } from '../../server/services/catalogue.ts'
+import {
+  appendHistory,
+  backfillRecordTimelines,
+  recordDetail,
+  recordEvent,
+  type HistoryEvent,
+} from '../../server/services/progress.ts'
+import { freshDatabase } from '../support/database.ts'
+import { clubWithPeople } from '../support/fixtures.ts'
+
+// What the audit reads as of a date: each record's steps by then and the athlete's recent pace
+// (steps per 30 days over the last 180 days). Definitions from the product brief: common practice
+// (no published source). Every figure below is worked out by hand from the events listed.
+
+let database: Database
+let fx: Awaited<ReturnType<typeof clubWithPeople>>
+let backTuck: string
+let frontTuck: string
+
+beforeAll(async () => {
+  database = await freshDatabase()
+  fx = await clubWithPeople(database.db, 'inputs')
+  const catalogue = await listElements(database.db, fx.club.id)
+  const pick = (direction: string) =>
+    catalogue.find(
+      (e) =>
+        e.apparatus === 'floor' &&
+        e.direction === direction &&
+        e.quarterRotations === 4 &&
+        e.twists[0] === 0 &&
+        e.shape === 'tuck',
+    )!.id
+  backTuck = pick('backward')
+  frontTuck = pick('forward')
+})
+afterAll(async () => {
+  await database.close()
+})
+
+async function newAthlete(familyName: string) {
+  return (
+    await createAthlete(database.db, fx.club.id, {
+      givenName: 'Test',
+      familyName,
+      birthYear: 2012,
+      squadId: fx.squad.id,
+      discipline: 'artistic-women',
+    })
+  ).id
+}
+
+const step = (
+  athleteId: string,
+  elementId: string,
+  stepIndex: number,
+  occurredOn: string,
+): HistoryEvent => ({
+  athleteId,
+  elementId,
+  coachId: fx.people.coach.id,
+  change: { kind: 'step', stepIndex, occurredOn, skipReason: 'Assessed' },
+})
+
+const access = () => ({
+  clubId: fx.club.id,
+  userId: fx.people.director.id,
+  role: 'director' as const,
+})
+
+async function inputsFor(athleteId: string, asOf: string) {
+  const inputs = await gatherInputs(database.db, fx.club.id, fx.squad.id, asOf)
+  return {
+    steps: Object.fromEntries(
+      inputs.records
+        .filter((r) => r.athleteId === athleteId)
+        .map((r) => [r.elementId, r.stepIndex]),
+    ),
+    pace: inputs.paces?.[athleteId] ?? 0,
+  }
+}
+
+describe('the audit’s inputs as of a date', () => {
+  it('takes each record’s highest step by the date and the pace over the 180 days before it', async () => {
+    const athlete = await newAthlete('Asof')
+    await appendHistory(database.db, fx.club.id, [
+      step(athlete, backTuck, 0, '2026-01-10'),
+      step(athlete, backTuck, 2, '2026-03-10'),
+      step(athlete, backTuck, 3, '2026-08-01'),
+      step(athlete, frontTuck, 1, '2026-05-01'),
+    ])
+    // As of 30 June: back tuck at 2, front tuck at 1. The window starts on 1 January (180 days
+    // before): back tuck −1 → 2 is 3 steps, front tuck −1 → 1 is 2 steps; 5 / 180 × 30 = 5/6.
+    const june = await inputsFor(athlete, '2026-06-30')
+    expect(june.steps).toEqual({ [backTuck]: 2, [frontTuck]: 1 })
+    expect(june.pace).toBeCloseTo(5 / 6, 12)
+    // Before anything happened the athlete has no record in the audit at all.
+    expect(await inputsFor(athlete, '2025-12-31')).toEqual({ steps: {}, pace: 0 })
+  })
+
+  it('carries on an existing record when a history is appended to it', async () => {
+    const athlete = await newAthlete('Appended')
+    await appendHistory(database.db, fx.club.id, [step(athlete, backTuck, 1, '2026-02-01')])
+    await appendHistory(database.db, fx.club.id, [step(athlete, backTuck, 2, '2026-04-01')])
+    expect((await inputsFor(athlete, '2026-06-30')).steps).toEqual({ [backTuck]: 2 })
+    const detail = await recordDetail(database.db, access(), athlete, backTuck)
+    expect(detail.events.map((e) => e.stepIndex).sort()).toEqual([1, 2])
+    expect(detail.stepIndex).toBe(2)
+  })
+
+  it('leaves out a mistaken event even when its correction is dated after the audit', async () => {
+    const athlete = await newAthlete('Corrected')
+    await appendHistory(database.db, fx.club.id, [
+      step(athlete, backTuck, 0, '2026-02-01'),
+      step(athlete, backTuck, 4, '2026-03-01'),
+    ])
+    const before = await recordDetail(database.db, access(), athlete, backTuck)
+    const mistaken = before.events.find((e) => e.stepIndex === 4)!
+    await recordEvent(database.db, access(), athlete, {
+      elementId: backTuck,
+      kind: 'step',
+      stepIndex: 1,
+      occurredOn: '2026-09-01',
+      correctsEventId: mistaken.id,
+      expectedLastEventId: before.lastEventId,
+      note: 'Logged on the wrong element',
+    })
+    // The step 4 of 1 March was never true: as of 30 June the athlete had step 0 only.
+    expect((await inputsFor(athlete, '2026-06-30')).steps).toEqual({ [backTuck]: 0 })
+    expect((await inputsFor(athlete, '2026-09-30')).steps).toEqual({ [backTuck]: 1 })
+  })
+
+  it('replays a record stored before timelines were kept, and the start-up backfill fills it in', async () => {
+    const athlete = await newAthlete('Legacy')
+    await appendHistory(database.db, fx.club.id, [
+      step(athlete, frontTuck, 0, '2026-01-05'),
+      step(athlete, frontTuck, 3, '2026-05-05'),
+    ])
+    const expected = await inputsFor(athlete, '2026-06-30')
+    const key = and(
+      eq(progressRecords.clubId, fx.club.id),
+      eq(progressRecords.athleteId, athlete),
+      eq(progressRecords.elementId, frontTuck),
+    )
+    await database.db.update(progressRecords).set({ timeline: null }).where(key)
+    expect(await inputsFor(athlete, '2026-06-30')).toEqual(expected)
+
+    expect(await backfillRecordTimelines(database.db)).toBe(1)
+    const [row] = await database.db.select().from(progressRecords).where(key)
+    expect(row!.timeline).toEqual([
+      { on: '2026-01-05', stepIndex: 0, highestStepIndex: 0 },
+      { on: '2026-05-05', stepIndex: 3, highestStepIndex: 3 },
+    ])
+    expect(await backfillRecordTimelines(database.db)).toBe(0)
+  })
+})
