@@ -5,6 +5,7 @@ import {
   foreignKey,
   index,
   integer,
+  json,
   jsonb,
   pgEnum,
   pgTable,
@@ -14,6 +15,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
+import type { AuditFigures, AuditResult } from '../../shared/domain/audit.ts'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
 import {
   directions,
@@ -417,7 +419,14 @@ export const audits = pgTable(
     squadId: uuid(),
     asOf: date().notNull(),
     inputHash: text().notNull(),
-    result: jsonb().notNull(),
+    /**
+     * The whole AuditResult. Plain json (stored as written, compressed with lz4 where the server
+     * has it): it is only ever written once and read whole, and for a large club it runs to
+     * megabytes, which jsonb would parse and rebuild on every insert.
+     */
+    result: json().$type<AuditResult>().notNull(),
+    /** The headline and the squad breakdown: what lists, trends and the board read. */
+    figures: jsonb().$type<AuditFigures>().notNull(),
     createdBy: text().references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     publishedAt: timestamp({ withTimezone: true, mode: 'date' }),

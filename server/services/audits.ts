@@ -1,7 +1,8 @@
-import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, inArray, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds } from '../../shared/domain/age-categories.ts'
 import { todayIso } from '../../shared/domain/access.ts'
 import {
+  auditFigures,
   auditInputHash,
   compareAudits,
   defaultRequirementProfiles,
@@ -166,6 +167,7 @@ export async function runAndStore(
       asOf,
       inputHash,
       result,
+      figures: auditFigures(result),
       createdBy: access.userId,
     })
     .returning({ id: audits.id })
@@ -181,8 +183,13 @@ async function squadNames(db: DbOrTx, clubId: string) {
   return Object.fromEntries(rows.map((r) => [r.id, r.name]))
 }
 
-function summary(row: typeof audits.$inferSelect, names: Record<string, string>): AuditSummary {
-  const result = row.result as AuditResult
+// Every column but the full result, which can run to megabytes: lists, trends, the board and
+// the checks before publishing read only these.
+const { result: _result, ...summaryColumns } = getTableColumns(audits)
+type SummaryRow = Omit<typeof audits.$inferSelect, 'result'>
+
+function summary(row: SummaryRow, names: Record<string, string>): AuditSummary {
+  const { headline } = row.figures
   return {
     id: row.id,
     squadId: row.squadId,
@@ -191,20 +198,29 @@ function summary(row: typeof audits.$inferSelect, names: Record<string, string>)
     inputHash: row.inputHash,
     createdAt: row.createdAt.toISOString(),
     publishedAt: row.publishedAt?.toISOString() ?? null,
-    clubFrontLag: result.headline.clubFrontLag,
-    balanceRatio: result.headline.balanceRatio,
-    athleteCount: result.headline.athleteCount,
+    clubFrontLag: headline.clubFrontLag,
+    balanceRatio: headline.balanceRatio,
+    athleteCount: headline.athleteCount,
   }
 }
 
 export async function listAudits(db: DbOrTx, clubId: string): Promise<AuditSummary[]> {
   const names = await squadNames(db, clubId)
   const rows = await db
-    .select()
+    .select(summaryColumns)
     .from(audits)
     .where(eq(audits.clubId, clubId))
     .orderBy(desc(audits.asOf), desc(audits.createdAt))
   return rows.map((r) => summary(r, names))
+}
+
+async function auditSummaryRow(db: DbOrTx, clubId: string, id: string): Promise<SummaryRow> {
+  const [row] = await db
+    .select(summaryColumns)
+    .from(audits)
+    .where(and(eq(audits.clubId, clubId), eq(audits.id, id)))
+  if (!row) throw notFound('No such audit.')
+  return row
 }
 
 async function auditRow(db: DbOrTx, clubId: string, id: string) {
@@ -217,7 +233,7 @@ async function auditRow(db: DbOrTx, clubId: string, id: string) {
 }
 
 /** The previous audit of the same scope: the latest one with an earlier as-of date (or created before on the same date). */
-function previousOf(rows: (typeof audits.$inferSelect)[], row: typeof audits.$inferSelect) {
+function previousOf(rows: SummaryRow[], row: SummaryRow) {
   return rows
     .filter(
       (r) =>
@@ -234,7 +250,7 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
   const row = await auditRow(db, access.clubId, id)
   const names = await squadNames(db, access.clubId)
   const scope = await db
-    .select()
+    .select(summaryColumns)
     .from(audits)
     .where(
       and(
@@ -243,7 +259,7 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
       ),
     )
   const previous = previousOf(scope, row)
-  const full = row.result as AuditResult
+  const full = row.result
   const readable = await readableSquadIds(db, access)
   const keep = (squadId: string) => readable === 'all' || readable.includes(squadId)
   const result: AuditResult = {
@@ -272,19 +288,16 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
   return {
     audit: summary(row, names),
     result,
-    comparison: compareAudits(previous ? (previous.result as AuditResult) : null, full),
+    comparison: compareAudits(previous?.figures ?? null, full),
     previous: previous ? summary(previous, names) : null,
     trend: scope
       .sort((a, b) => a.asOf.localeCompare(b.asOf) || a.createdAt.getTime() - b.createdAt.getTime())
-      .map((r) => {
-        const h = (r.result as AuditResult).headline
-        return {
-          id: r.id,
-          asOf: r.asOf,
-          clubFrontLag: h.clubFrontLag,
-          balanceRatio: h.balanceRatio,
-        }
-      }),
+      .map((r) => ({
+        id: r.id,
+        asOf: r.asOf,
+        clubFrontLag: r.figures.headline.clubFrontLag,
+        balanceRatio: r.figures.headline.balanceRatio,
+      })),
     athleteNames: Object.fromEntries(people.map((p) => [p.id, `${p.givenName} ${p.familyName}`])),
     squadNames: names,
     limitedToSquads: readable !== 'all',
@@ -293,13 +306,13 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
 
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
 export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
-  const row = await auditRow(db, access.clubId, id)
+  const row = await auditSummaryRow(db, access.clubId, id)
   const hash = await auditInputHash(await gatherInputs(db, access.clubId, row.squadId, row.asOf))
   return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
 }
 
 export async function publish(db: DbOrTx, access: ClubAccess, id: string) {
-  const row = await auditRow(db, access.clubId, id)
+  const row = await auditSummaryRow(db, access.clubId, id)
   if (row.publishedAt)
     throw new AppError(409, 'already_published', 'This audit is already published.')
   await db
@@ -315,17 +328,17 @@ export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSum
   const names = await squadNames(db, clubId)
   const rows = (
     await db
-      .select()
+      .select(summaryColumns)
       .from(audits)
       .where(and(eq(audits.clubId, clubId), isNull(audits.squadId)))
       .orderBy(asc(audits.asOf), asc(audits.createdAt))
   ).filter((r) => r.publishedAt !== null)
   const last = rows.at(-1)
-  const latest = last ? (last.result as AuditResult) : null
+  const latest = last?.figures ?? null
   return {
     clubName: club!.name,
     trend: rows.map((r) => {
-      const h = (r.result as AuditResult).headline
+      const h = r.figures.headline
       return {
         asOf: r.asOf,
         clubFrontLag: h.clubFrontLag,

@@ -286,6 +286,14 @@ export interface AuditResult {
   readiness: ReadinessRow[]
 }
 
+/** The part of a result that lists, trends and the board summary read: no athlete in it. */
+export type AuditFigures = Pick<AuditResult, 'headline' | 'squads'>
+
+/** The figures of a result. */
+export function auditFigures(result: AuditResult): AuditFigures {
+  return { headline: result.headline, squads: result.squads }
+}
+
 /**
  * Proficiency p(a,e) = (index of the highest step reached + 1) / number of steps, 0 with no
  * step. A step index beyond the progression counts as its last step, so p never exceeds 1.
