@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { performance } from 'node:perf_hooks'
 import type { DbOrTx } from '../server/db/client.ts'
-import { athletes, elements, progressEvents } from '../server/db/schema.ts'
+import { athletes, elements, progressEvents, progressRecords } from '../server/db/schema.ts'
 import { createAthlete } from '../server/services/athletes.ts'
 import { gatherInputs } from '../server/services/audit-inputs.ts'
 import { runAndStore } from '../server/services/audits.ts'
@@ -81,7 +81,8 @@ export async function buildAuditClub(db: DbOrTx) {
 
 /**
  * The audit of a club of 1,000 athletes × 300 elements (100,000 records built from about 400,000
- * events); target under 2 s. Beside it: only reading the same rows from PostgreSQL.
+ * events); target under 2 s. Beside it: only reading the rows it reads from PostgreSQL, and
+ * only reading the events a replay of the whole history would need.
  */
 export default async function auditBench() {
   await withBenchDatabase(async (database) => {
@@ -99,23 +100,39 @@ export default async function auditBench() {
       5,
       1,
     )
-    const read = await time(
+    // What the audit reads: one row per record (its stored timeline), the athletes and the
+    // catalogue.
+    const readRecords = await time(
       () =>
         Promise.all([
-          db.select(replayColumns).from(progressEvents).where(eq(progressEvents.clubId, clubId)),
+          db
+            .select({
+              athleteId: progressRecords.athleteId,
+              elementId: progressRecords.elementId,
+              timeline: progressRecords.timeline,
+            })
+            .from(progressRecords)
+            .where(eq(progressRecords.clubId, clubId)),
           db.select().from(elements).where(eq(elements.clubId, clubId)),
           db.select().from(athletes).where(eq(athletes.clubId, clubId)),
         ]),
       5,
       1,
     )
-    report(
-      'audit of the club (read, replay, compute, hash, store)',
-      audit,
-      read,
-      'reading its rows',
+    // What replaying the history would have to read: every event.
+    const readEvents = await time(
+      () => db.select(replayColumns).from(progressEvents).where(eq(progressEvents.clubId, clubId)),
+      3,
+      1,
     )
-    const gather = await time(() => gatherInputs(db, clubId, null, auditBenchAsOf), 3, 1)
-    report('  of which gathering the inputs', gather, read, 'reading its rows')
+    const gather = await time(() => gatherInputs(db, clubId, null, auditBenchAsOf), 5, 1)
+    report(
+      'audit of the club (read, compute, hash, store)',
+      audit,
+      readRecords,
+      'reading the rows it reads',
+    )
+    report('audit of the club', audit, readEvents, 'reading the 400,000 events')
+    report('  of which gathering the inputs', gather, readRecords, 'reading the rows it reads')
   })
 }

@@ -5,7 +5,7 @@
 import { and, asc, eq, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
 import type { AuditInputs, AuditRecord, RequirementProfile } from '../../shared/domain/audit.ts'
-import { stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
+import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
   ageThresholds,
@@ -105,18 +105,20 @@ export async function gatherInputs(
   const inScope = new Set(roster.map((a) => a.id))
   const records: AuditRecord[] = []
   const paces: Record<string, number> = {}
+  const window = paceWindow(asOf)
   for (const row of recordRows) {
     if (!inScope.has(row.athleteId)) continue
     const timeline =
       row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))
     const reached = stepsAsOf(timeline, asOf)
     if (reached === null) continue
+    const [, , highestStepIndex] = reached
     records.push({
       athleteId: row.athleteId,
       elementId: row.elementId,
-      stepIndex: reached.highestStepIndex,
+      stepIndex: highestStepIndex,
     })
-    paces[row.athleteId] = (paces[row.athleteId] ?? 0) + timelinePace(timeline, asOf)
+    paces[row.athleteId] = (paces[row.athleteId] ?? 0) + timelinePace(timeline, window)
   }
   return {
     asOf,

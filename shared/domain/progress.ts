@@ -62,14 +62,10 @@ export interface ProgressRecord {
  * The record's step and highest step at the end of a day on which either changed. A replay as of
  * any date is the replay of a prefix of the history (events are ordered by the day they occurred
  * first), so the last point on or before a date gives the steps as of that date without reading
- * the events again.
+ * the events again. A tuple rather than an object: a club's records hold hundreds of thousands of
+ * them, stored and read as JSON.
  */
-export interface TimelinePoint {
-  /** ISO date (YYYY-MM-DD). */
-  on: string
-  stepIndex: number
-  highestStepIndex: number
-}
+export type TimelinePoint = readonly [on: string, stepIndex: number, highestStepIndex: number]
 
 const msPerDay = 86_400_000
 
@@ -163,9 +159,8 @@ export function replayRecord(
     record.stepReachedOn = on
     record.highestStepIndex = Math.max(record.highestStepIndex ?? stepIndex, stepIndex)
     // Several changes on one day leave one point: the steps at the end of that day.
-    const last = timeline.at(-1)
-    const point = { on, stepIndex, highestStepIndex: record.highestStepIndex }
-    if (last?.on === on) timeline[timeline.length - 1] = point
+    const point: TimelinePoint = [on, stepIndex, record.highestStepIndex]
+    if (timeline.at(-1)?.[0] === on) timeline[timeline.length - 1] = point
     else timeline.push(point)
   }
 
@@ -358,30 +353,38 @@ function capitalise(text: string): string {
  * a fast one.
  */
 export function pace(events: readonly ProgressEvent[], asOf: string, windowDays = 180): number {
-  return timelinePace(replayRecord(events).timeline, asOf, windowDays)
+  return timelinePace(replayRecord(events).timeline, paceWindow(asOf, windowDays))
 }
 
-/** {@link pace} from a record's timeline. */
-export function timelinePace(
-  timeline: readonly TimelinePoint[],
-  asOf: string,
-  windowDays = 180,
-): number {
-  if (windowDays <= 0) return 0
-  const start = stepsAsOf(timeline, addDays(asOf, -windowDays))?.stepIndex ?? -1
-  const end = stepsAsOf(timeline, asOf)?.stepIndex ?? -1
-  return ((end - start) / windowDays) * 30
+/** The days a pace is measured over: the `days` days up to and including `asOf`. */
+export interface PaceWindow {
+  /** The day before the window: the step as of then is where the window starts from. */
+  before: string
+  asOf: string
+  days: number
+}
+
+export function paceWindow(asOf: string, windowDays = 180): PaceWindow {
+  return { before: addDays(asOf, -windowDays), asOf, days: windowDays }
+}
+
+/** {@link pace} from a record's timeline; the window is worked out once for many records. */
+export function timelinePace(timeline: readonly TimelinePoint[], window: PaceWindow): number {
+  if (window.days <= 0) return 0
+  const start = stepsAsOf(timeline, window.before)?.[1] ?? -1
+  const end = stepsAsOf(timeline, window.asOf)?.[1] ?? -1
+  return ((end - start) / window.days) * 30
 }
 
 /**
- * The record's steps at the end of `asOf`, from its timeline: the same step and highest step as
- * `replayRecord(events, { asOf })`. Null when no step had been reached by then.
+ * The record's steps at the end of `asOf`, from its timeline: the point with the same step and
+ * highest step as `replayRecord(events, { asOf })`. Null when no step had been reached by then.
  */
 export function stepsAsOf(timeline: readonly TimelinePoint[], asOf: string): TimelinePoint | null {
   // Timelines are short and audits mostly look at recent dates: search from the end.
   for (let i = timeline.length - 1; i >= 0; i--) {
     const point = timeline[i]!
-    if (point.on <= asOf) return point
+    if (point[0] <= asOf) return point
   }
   return null
 }

@@ -153,9 +153,10 @@ describe('the audit’s inputs as of a date', () => {
 
     expect(await backfillRecordTimelines(database.db)).toBe(1)
     const [row] = await database.db.select().from(progressRecords).where(key)
+    // [day, step, highest step]
     expect(row!.timeline).toEqual([
-      { on: '2026-01-05', stepIndex: 0, highestStepIndex: 0 },
-      { on: '2026-05-05', stepIndex: 3, highestStepIndex: 3 },
+      ['2026-01-05', 0, 0],
+      ['2026-05-05', 3, 3],
     ])
     expect(await backfillRecordTimelines(database.db)).toBe(0)
   })
