@@ -1,10 +1,13 @@
 import { uniformInt } from 'pure-rand/distribution/uniformInt'
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
 import type { Discipline, Role, SquadLevel } from '../shared/domain/club.ts'
+import { previousQuarter, quarterOf } from '../shared/domain/quarters.ts'
 import { and, count, eq } from 'drizzle-orm'
+import type { ClubAccess } from '../server/auth/club-access.ts'
 import type { Db, DbOrTx } from '../server/db/client.ts'
 import { athletes, elementSteps, memberships } from '../server/db/schema.ts'
 import { createAthlete } from '../server/services/athletes.ts'
+import { publish, runAndStore } from '../server/services/audits.ts'
 import { createElement, listElements } from '../server/services/catalogue.ts'
 import { appendHistory } from '../server/services/progress.ts'
 import { countClubs, createClub } from '../server/services/clubs.ts'
@@ -152,14 +155,35 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       await createElement(tx, { clubId: club.id, userId: director, role: 'director' }, element)
     }
     const history = await demoProgress(tx, club.id, today, rng, userIds, squadIds)
+    const audits = await demoAudits(
+      tx,
+      { clubId: club.id, userId: director, role: 'director' },
+      today,
+    )
     return {
       club,
       squads: squadIds.size,
       athletes: athleteCount,
       people: demoPeople.length,
       events: history.events,
+      audits,
     }
   })
+}
+
+/**
+ * The club audited at the end of each of the last four quarters and published, so that the
+ * report has a previous audit to compare with and the board a trend to read.
+ */
+async function demoAudits(db: DbOrTx, director: ClubAccess, today: Date) {
+  const quarters: string[] = []
+  let quarter = quarterOf(isoDate(today))
+  for (let i = 0; i < 4; i++) quarters.unshift((quarter = previousQuarter(quarter)))
+  for (const q of quarters) {
+    const id = await runAndStore(db, director, { squadId: null, quarter: q })
+    await publish(db, director, id)
+  }
+  return quarters.length
 }
 
 /** Seeds the demo only into an empty database, so that a restart never loads it twice. */

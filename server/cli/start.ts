@@ -17,7 +17,7 @@ try {
   const seeded = await prepareDatabase(local.url)
   console.log(
     seeded
-      ? `    loaded the demo club "${seeded.club.name}" (${seeded.squads} squads, ${seeded.athletes} athletes)`
+      ? `    loaded the demo club "${seeded.club.name}" (${seeded.squads} squads, ${seeded.athletes} athletes, ${seeded.audits} published quarterly audits)`
       : '    data kept from the last run',
   )
   console.log('3/4 Building the client…')

@@ -13,3 +13,12 @@ export function quarterOf(isoDate: string): string {
   const [year, month] = isoDate.split('-').map(Number) as [number, number]
   return `${year}-Q${Math.ceil(month / 3)}`
 }
+
+/** The calendar quarter before `quarter` (`YYYY-Qn`). */
+export function previousQuarter(quarter: string): string {
+  const match = /^(\d{4})-Q([1-4])$/.exec(quarter)
+  if (!match) throw new Error(`Not a quarter: ${quarter}`)
+  const year = Number(match[1])
+  const n = Number(match[2])
+  return n === 1 ? `${year - 1}-Q4` : `${year}-Q${n - 1}`
+}

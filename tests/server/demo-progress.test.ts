@@ -3,6 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import {
   athletes,
+  audits,
+  clubs,
   elements,
   elementSteps,
   progressEvents,
@@ -10,6 +12,7 @@ import {
   squads,
 } from '../../server/db/schema.ts'
 import { prepareDatabase } from '../../server/cli/bootstrap.ts'
+import { boardSummary } from '../../server/services/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 
 // The demo's made-up history must show what the product is for: one squad whose forward program
@@ -89,5 +92,30 @@ describe('the demo club’s history', () => {
       .from(progressEvents)
       .where(eq(progressEvents.flagged, true))
     expect(flagged[0]!.n).toBeGreaterThan(0)
+  })
+
+  it('has a year of published quarterly audits for the board to read', async () => {
+    const rows = await database.db
+      .select({ asOf: audits.asOf, squadId: audits.squadId, publishedAt: audits.publishedAt })
+      .from(audits)
+    // seeded on 1 December 2026: the ends of the four quarters before the current one
+    expect(rows.map((r) => r.asOf).sort()).toEqual([
+      '2025-12-31',
+      '2026-03-31',
+      '2026-06-30',
+      '2026-09-30',
+    ])
+    expect(rows.every((r) => r.squadId === null && r.publishedAt !== null)).toBe(true)
+    const [club] = await database.db.select().from(clubs)
+    const board = await boardSummary(database.db, club!.id)
+    expect(board.trend.map((p) => p.asOf)).toEqual([
+      '2025-12-31',
+      '2026-03-31',
+      '2026-06-30',
+      '2026-09-30',
+    ])
+    const falcons = board.latest!.squads.find((s) => s.name === 'Falcons')!
+    const kites = board.latest!.squads.find((s) => s.name === 'Kites')!
+    expect(falcons.frontLag).toBeGreaterThan(kites.frontLag)
   })
 })
