@@ -65,39 +65,36 @@ export async function gatherInputs(
     isNull(athletes.archivedAt),
     squadId ? eq(athletes.squadId, squadId) : undefined,
   )
-  const [catalogue, stepRows, roster, recordRows, profiles, thresholds] = await Promise.all([
-    listElements(db, clubId),
-    db
-      .select({ elementId: elementSteps.elementId, position: elementSteps.position })
-      .from(elementSteps)
-      .where(eq(elementSteps.clubId, clubId)),
-    db
-      .select({
-        id: athletes.id,
-        squadId: athletes.squadId,
-        birthYear: athletes.birthYear,
-        discipline: athletes.discipline,
-      })
-      .from(athletes)
-      .where(inRoster),
-    db
-      .select({
-        athleteId: progressRecords.athleteId,
-        elementId: progressRecords.elementId,
-        timeline: progressRecords.timeline,
-      })
-      .from(progressRecords)
-      .innerJoin(
-        athletes,
-        and(
-          eq(athletes.clubId, progressRecords.clubId),
-          eq(athletes.id, progressRecords.athleteId),
-        ),
-      )
-      .where(and(eq(progressRecords.clubId, clubId), inRoster)),
-    clubProfiles(db, clubId),
-    clubAgeThresholds(db, clubId),
-  ])
+  // One query after another: the caller may hand us a transaction, whose one connection runs
+  // one query at a time.
+  const catalogue = await listElements(db, clubId)
+  const stepRows = await db
+    .select({ elementId: elementSteps.elementId, position: elementSteps.position })
+    .from(elementSteps)
+    .where(eq(elementSteps.clubId, clubId))
+  const roster = await db
+    .select({
+      id: athletes.id,
+      squadId: athletes.squadId,
+      birthYear: athletes.birthYear,
+      discipline: athletes.discipline,
+    })
+    .from(athletes)
+    .where(inRoster)
+  const recordRows = await db
+    .select({
+      athleteId: progressRecords.athleteId,
+      elementId: progressRecords.elementId,
+      timeline: progressRecords.timeline,
+    })
+    .from(progressRecords)
+    .innerJoin(
+      athletes,
+      and(eq(athletes.clubId, progressRecords.clubId), eq(athletes.id, progressRecords.athleteId)),
+    )
+    .where(and(eq(progressRecords.clubId, clubId), inRoster))
+  const profiles = await clubProfiles(db, clubId)
+  const thresholds = await clubAgeThresholds(db, clubId)
   const stepCount = new Map<string, number>()
   for (const s of stepRows)
     stepCount.set(s.elementId, Math.max(stepCount.get(s.elementId) ?? 0, s.position + 1))
