@@ -78,20 +78,32 @@ export const whiteBackground: Plugin = {
   },
 }
 
+// The width of a printed page's content in CSS pixels: A4 less the report's 14 mm margins
+// (Letter is a little wider). The print stylesheet scales a chart down if the paper is narrower.
+const printWidth = 680
+
 /**
- * Redraws every chart at the page's print size before printing and back afterwards: Chart.js
- * sizes its canvas for the screen, and a print preview would otherwise crop or stretch it.
+ * Redraws every chart at the printed page's width before printing and at its box's size
+ * afterwards. Chart.js draws for the screen, and the browser lays the page out for paper only
+ * after `beforeprint`: a chart drawn 1200 pixels wide would be shrunk onto the page, its text
+ * too small to read, so the width is given explicitly and the height kept.
  */
 export function useChartsResizeForPrint() {
-  const resizeAll = () => {
+  const forPrint = () => {
+    for (const chart of Object.values(Chart.instances)) {
+      const height = chart.canvas.parentElement?.clientHeight || chart.height
+      chart.resize(printWidth, height)
+    }
+  }
+  const forScreen = () => {
     for (const chart of Object.values(Chart.instances)) chart.resize()
   }
   onMounted(() => {
-    window.addEventListener('beforeprint', resizeAll)
-    window.addEventListener('afterprint', resizeAll)
+    window.addEventListener('beforeprint', forPrint)
+    window.addEventListener('afterprint', forScreen)
   })
   onBeforeUnmount(() => {
-    window.removeEventListener('beforeprint', resizeAll)
-    window.removeEventListener('afterprint', resizeAll)
+    window.removeEventListener('beforeprint', forPrint)
+    window.removeEventListener('afterprint', forScreen)
   })
 }
