@@ -125,4 +125,14 @@ describe('describeChange', () => {
     const change = describeChange(kind, aim, { previous, current, change: current - previous })
     expect(change.words).toBe(words)
   })
+
+  it('calls a change that rounds to nothing unchanged, not better or worse', () => {
+    // 0.001 pts shows as "+0.0 pts": the tile must not read "±0 worse"
+    const change = describeChange('percent', 'lower', {
+      previous: 0.3,
+      current: 0.30001,
+      change: 0.00001,
+    })
+    expect(change).toMatchObject({ arrow: '=', signed: '±0', verdict: 'same' })
+  })
 })

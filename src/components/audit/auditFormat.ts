@@ -54,7 +54,7 @@ export function changeVerdict(aim: FigureAim, figure: FigureChange): ChangeVerdi
 }
 
 export interface ChangeText {
-  arrow: '▲' | '▼' | '＝' | ''
+  arrow: '▲' | '▼' | '=' | ''
   signed: string
   /** The whole change in words, for screen readers and for anyone who does not read colour. */
   words: string
@@ -70,10 +70,15 @@ export function describeChange(kind: FigureKind, aim: FigureAim, figure: FigureC
     return { arrow: '', signed: '', words, verdict: null }
   }
   const shown = formatSignedChange(kind, figure.change)
-  // A change that rounds to zero as shown reads as none, whatever its sign.
+  // A change that rounds to zero as shown reads as none, whatever its sign or its verdict.
   const unchanged = verdict === 'same' || !/[1-9]/.test(shown)
   if (unchanged) {
-    return { arrow: '＝', signed: '±0', words: 'unchanged since the previous audit', verdict }
+    return {
+      arrow: '=',
+      signed: '±0',
+      words: 'unchanged since the previous audit',
+      verdict: 'same',
+    }
   }
   const arrow = figure.change > 0 ? '▲' : '▼'
   const direction = figure.change > 0 ? 'up' : 'down'
