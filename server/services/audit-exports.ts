@@ -2,7 +2,7 @@ import Papa from 'papaparse'
 import PDFDocument from 'pdfkit'
 import { fileURLToPath } from 'node:url'
 import type { CoverageCell } from '../../shared/domain/audit.ts'
-import { safetyCaution } from '../../shared/domain/element.ts'
+import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 
 const pct = (n: number | null) => (n === null ? '—' : `${(n * 100).toFixed(1)} %`)
@@ -68,46 +68,59 @@ const forwardColour = '#2f7d6d'
 const backwardColour = '#b5622d'
 
 /** The coverage chart drawn in the PDF itself: forward beside backward for each cell. */
+/**
+ * The coverage chart as on screen: per cell, forward beside backward, the mean best proficiency
+ * on a 0–100 % scale. Cells without any element in either direction are left out.
+ */
 function coverageChart(doc: PDFKit.PDFDocument, cells: CoverageCell[]) {
   const shown = cells.filter((c) => c.forward.elementCount + c.backward.elementCount > 0)
-  const left = doc.page.margins.left
+  const axis = 24
+  const left = doc.page.margins.left + axis
   const width = doc.page.width - left - doc.page.margins.right
   const barArea = 120
   const top = doc.y + 10
   const slot = width / Math.max(1, shown.length)
   doc.save()
-  doc
-    .moveTo(left, top + barArea)
-    .lineTo(left + width, top + barArea)
-    .strokeColor('#888')
-    .stroke()
+  doc.fillColor('#555').fontSize(6.5)
+  for (const tick of [0, 50, 100]) {
+    const y = top + barArea - (tick / 100) * barArea
+    doc.text(`${tick}%`, doc.page.margins.left, y - 3, { width: axis - 4, align: 'right' })
+    doc
+      .moveTo(left, y)
+      .lineTo(left + width, y)
+      .strokeColor(tick === 0 ? '#888' : '#ddd')
+      .stroke()
+  }
   shown.forEach((cell, i) => {
     const x = left + i * slot + slot * 0.15
     const w = slot * 0.33
     const f = cell.forward.mean * barArea
     const b = cell.backward.mean * barArea
-    doc.rect(x, top + barArea - b, w, b).fill(backwardColour)
-    doc.rect(x + w, top + barArea - f, w, f).fill(forwardColour)
+    doc.rect(x, top + barArea - f, w, f).fill(forwardColour)
+    doc.rect(x + w, top + barArea - b, w, b).fill(backwardColour)
     doc
       .fillColor('#333')
       .fontSize(6.5)
-      .text(`${cell.rotationClass}\n${cell.twistBand}`, left + i * slot, top + barArea + 3, {
-        width: slot,
-        align: 'center',
-      })
+      .text(
+        `${rotationClassLabels[cell.rotationClass]}\n${twistBandLabels[cell.twistBand]}`,
+        left + i * slot,
+        top + barArea + 3,
+        { width: slot, align: 'center' },
+      )
   })
   doc.restore()
-  doc.y = top + barArea + 26
-  doc.x = left
+  doc.y = top + barArea + 34
+  doc.x = doc.page.margins.left
   const legendY = doc.y
-  doc.rect(left, legendY + 1, 7, 7).fill(backwardColour)
-  doc.rect(left + 70, legendY + 1, 7, 7).fill(forwardColour)
+  doc.rect(left, legendY + 1, 7, 7).fill(forwardColour)
+  doc.rect(left + 70, legendY + 1, 7, 7).fill(backwardColour)
   doc
     .fillColor('#333')
     .fontSize(8)
-    .text('backward', left + 10, legendY)
-  doc.text('forward', left + 80, legendY)
-  doc.x = left
+    .text('Forward', left + 10, legendY)
+  doc.text('Backward', left + 80, legendY)
+  doc.text('Mean best proficiency in each rotation class · twist band', left + 160, legendY)
+  doc.x = doc.page.margins.left
   doc.fillColor('#000')
 }
 

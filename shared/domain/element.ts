@@ -27,6 +27,21 @@ export type RotationClass = (typeof rotationClasses)[number]
 export const twistBands = ['none', 'half', 'full', 'more'] as const
 export type TwistBand = (typeof twistBands)[number]
 
+/** The rotation classes and twist bands in words, for screens, exports and the PDF alike. */
+export const rotationClassLabels: Record<RotationClass, string> = {
+  none: 'No salto',
+  single: 'Single',
+  double: 'Double',
+  triple: 'Triple or more',
+}
+
+export const twistBandLabels: Record<TwistBand, string> = {
+  none: 'No twist',
+  half: 'Half twist',
+  full: 'Full twist',
+  more: 'More than a full twist',
+}
+
 /** Equipment or setting a progression step is done in. */
 export const modalities = [
   'floor-drill',

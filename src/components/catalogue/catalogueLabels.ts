@@ -1,13 +1,17 @@
-import type { Direction, RotationClass, Shape, TakeOff, TwistBand } from '@shared/domain/element'
+import type { Direction, Shape, TakeOff } from '@shared/domain/element'
 import {
   directions,
   rotationClasses,
+  rotationClassLabels,
   shapes,
   takeOffs,
   twistBands,
+  twistBandLabels,
   modalities,
   modalityLabels,
 } from '@shared/domain/element'
+
+export { rotationClassLabels, twistBandLabels }
 
 // How the element vocabulary is named on screen, in the trade's words.
 
@@ -30,20 +34,6 @@ export const takeOffLabels: Record<TakeOff, string> = {
   'back-handspring': 'From a back handspring',
   punch: 'From a punch (hurdle)',
   'trampoline-bounce': 'From a trampoline bounce',
-}
-
-export const rotationClassLabels: Record<RotationClass, string> = {
-  none: 'No salto',
-  single: 'Single',
-  double: 'Double',
-  triple: 'Triple or more',
-}
-
-export const twistBandLabels: Record<TwistBand, string> = {
-  none: 'No twist',
-  half: 'Half twist',
-  full: 'Full twist',
-  more: 'More than a full twist',
 }
 
 const options = <T extends string>(values: readonly T[], labels: Record<T, string>) =>
