@@ -322,17 +322,22 @@ export async function publish(db: DbOrTx, access: ClubAccess, id: string) {
   return row
 }
 
-/** The board's page: published club-wide audits only, figures and squad names, no athletes. */
+/**
+ * The board's page: published club-wide audits only (the latest created for each date), figures
+ * and squad names, no athletes.
+ */
 export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSummary> {
   const [club] = await db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId))
   const names = await squadNames(db, clubId)
-  const rows = (
+  const published = (
     await db
       .select(summaryColumns)
       .from(audits)
       .where(and(eq(audits.clubId, clubId), isNull(audits.squadId)))
       .orderBy(asc(audits.asOf), asc(audits.createdAt))
   ).filter((r) => r.publishedAt !== null)
+  // One point per date: an audit published again for the same day replaces the earlier one.
+  const rows = published.filter((r, i) => published[i + 1]?.asOf !== r.asOf)
   const last = rows.at(-1)
   const latest = last?.figures ?? null
   return {

@@ -196,6 +196,14 @@ describe('publishing and the board', () => {
     ])
   })
 
+  it('shows the board one point per date when an audit of the same day is published again', async () => {
+    const again = await runAudit({ squadId: null, asOf: '2026-06-30' })
+    await director.post(`${base}/audits/${again.audit.id}/publish`).expect(200)
+    const summary = (await board.get(`${base}/board-summary`).expect(200)).body as BoardSummary
+    expect(summary.trend.map((p) => p.asOf)).toEqual(['2026-06-30'])
+    expect(summary.latest?.publishedAt).toBeDefined()
+  })
+
   it('lets the board reach no athlete-level data in any response', async () => {
     const forbidden = [ada, bea, ...Object.values(names).flat(), '2011']
     const reachable = t.clubRoutes
