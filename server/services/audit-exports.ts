@@ -124,7 +124,87 @@ function coverageChart(doc: PDFKit.PDFDocument, cells: CoverageCell[]) {
   doc.fillColor('#000')
 }
 
-/** The report as a PDF: headline figures with their change, the coverage chart, squads, gaps, readiness. */
+/**
+ * The trend across the audits of the report's scope, as on screen: the front-lag (solid, left
+ * scale in %) and the balance ratio (dashed, right scale, 1.00 is balanced) at each as-of date.
+ */
+function trendChart(doc: PDFKit.PDFDocument, trend: AuditReport['trend']) {
+  const margin = doc.page.margins.left
+  const left = margin + 28
+  const width = doc.page.width - left - doc.page.margins.right - 28
+  const height = 110
+  const top = doc.y + 10
+  const ratioTop = Math.max(1.2, ...trend.map((p) => p.balanceRatio ?? 0))
+  const x = (i: number) =>
+    left + (trend.length === 1 ? width / 2 : (i / (trend.length - 1)) * width)
+  const yLag = (lag: number) => top + height - lag * height
+  const yRatio = (r: number) => top + height - (r / ratioTop) * height
+  doc.save()
+  doc.fontSize(6.5).fillColor('#555')
+  for (const tick of [0, 0.5, 1]) {
+    doc
+      .moveTo(left, yLag(tick))
+      .lineTo(left + width, yLag(tick))
+      .strokeColor(tick === 0 ? '#888' : '#ddd')
+      .stroke()
+    doc.text(`${tick * 100}%`, margin, yLag(tick) - 3, { width: 24, align: 'right' })
+    doc.text((tick * ratioTop).toFixed(2), left + width + 4, yLag(tick) - 3, { width: 24 })
+  }
+  // Every date when they fit, else about eight of them.
+  const every = Math.max(1, Math.ceil(trend.length / 8))
+  trend.forEach((p, i) => {
+    if (i % every !== 0 && i !== trend.length - 1) return
+    // the end labels keep inside the plot, clear of the scales' labels
+    const first = i === 0 && trend.length > 1
+    const last = i === trend.length - 1 && trend.length > 1
+    const at = first ? x(i) : last ? x(i) - 50 : x(i) - 25
+    doc.text(p.asOf, at, top + height + 5, {
+      width: 50,
+      align: first ? 'left' : last ? 'right' : 'center',
+    })
+  })
+  const line = (points: [number, number][], dash: boolean) => {
+    if (points.length === 0) return
+    doc.moveTo(...points[0]!)
+    for (const point of points.slice(1)) doc.lineTo(...point)
+    if (dash) doc.dash(3, { space: 2 })
+    doc
+      .lineWidth(1.5)
+      .strokeColor(dash ? forwardColour : '#1d4e5f')
+      .stroke()
+    doc.undash().lineWidth(1)
+    for (const point of points)
+      doc.circle(point[0], point[1], 1.8).fill(dash ? forwardColour : '#1d4e5f')
+  }
+  line(
+    trend.map((p, i) => [x(i), yLag(p.clubFrontLag)]),
+    false,
+  )
+  line(
+    trend.flatMap((p, i) => (p.balanceRatio === null ? [] : [[x(i), yRatio(p.balanceRatio)]])) as [
+      number,
+      number,
+    ][],
+    true,
+  )
+  doc.restore()
+  doc.y = top + height + 18
+  const legendY = doc.y
+  doc.rect(left, legendY + 3, 12, 1.5).fill('#1d4e5f')
+  doc.rect(left + 90, legendY + 3, 12, 1.5).fill(forwardColour)
+  doc
+    .fillColor('#333')
+    .fontSize(8)
+    .text('Front-lag (%)', left + 16, legendY)
+  doc.text('Balance ratio (forward ÷ backward, right scale)', left + 106, legendY)
+  doc.x = margin
+  doc.fillColor('#000')
+}
+
+/**
+ * The report as a PDF: headline figures with their change, the coverage and trend charts,
+ * squads, gaps, readiness.
+ */
 export function reportPdf(report: AuditReport, clubName: string): Promise<Buffer> {
   return new Promise((resolve, reject) => {
     const doc = new PDFDocument({
@@ -141,10 +221,13 @@ export function reportPdf(report: AuditReport, clubName: string): Promise<Buffer
 
     const h = report.result.headline
     const c = report.comparison
-    const change = (n: number | null, asPct = true) =>
-      n === null
-        ? ''
-        : ` (${n >= 0 ? '+' : ''}${asPct ? `${(n * 100).toFixed(1)} pts` : n.toFixed(2)})`
+    const change = (n: number | null, asPct = true) => {
+      if (n === null) return ''
+      const shown = asPct ? `${Math.abs(n * 100).toFixed(1)} pts` : Math.abs(n).toFixed(2)
+      // as on screen: a change that rounds to nothing is no change
+      if (!/[1-9]/.test(shown)) return ' (unchanged)'
+      return ` (${n > 0 ? '+' : '−'}${shown})`
+    }
     doc.font('bold').fontSize(18).text(`${clubName}: forward/backward audit`)
     doc.font('regular').fontSize(10).fillColor('#555')
     doc.text(
@@ -165,11 +248,20 @@ export function reportPdf(report: AuditReport, clubName: string): Promise<Buffer
     doc.font('bold').fontSize(12).text('Coverage: mean best proficiency by rotation and twist')
     coverageChart(doc, report.result.coverage)
     doc.moveDown()
+    doc.font('bold').fontSize(12).text('Trend across the audits of this scope')
+    doc.font('regular').fontSize(10)
+    if (report.trend.length < 2) doc.text('The first audit of this scope: no trend yet.')
+    else trendChart(doc, report.trend)
+    doc.moveDown()
     doc.font('bold').fontSize(12).text('Squads')
     doc.font('regular').fontSize(10)
-    for (const s of report.result.squads) {
+    const squadName = (id: string) => report.squadNames[id] ?? 'Squad'
+    const squads = [...report.result.squads].sort((a, b) =>
+      squadName(a.squadId).localeCompare(squadName(b.squadId)),
+    )
+    for (const s of squads) {
       doc.text(
-        `${report.squadNames[s.squadId] ?? 'Squad'}: front-lag ${pct(s.frontLag)}, balance ${ratio(s.balanceRatio)}, ${s.athletesWithGaps} of ${s.athleteCount} athletes with gaps`,
+        `${squadName(s.squadId)}: front-lag ${pct(s.frontLag)}, balance ${ratio(s.balanceRatio)}, ${s.athletesWithGaps} of ${s.athleteCount} athletes with gaps`,
       )
     }
     doc.moveDown()

@@ -218,6 +218,9 @@ test('the PDF report downloads with the club, its headline figures, the largest 
     `Back-lag: ${spaced(figures.backLag)}`,
     `Balance ratio (forward / backward): ${figures.ratio}`,
     `Catalogue gaps: ${figures.catalogueGaps} · athletes with gaps: ${figures.athletesWithGaps} · readiness alerts: ${figures.readinessAlerts}`,
+    // the demo's published quarters and this audit make a trend: the chart is drawn
+    'Trend across the audits of this scope',
+    'Front-lag (%)',
     ...squadNames.map((name) => `${name}: front-lag`),
     `1. ${firstGapAthlete}:`,
     safetyCaution,
