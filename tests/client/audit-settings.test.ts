@@ -43,7 +43,7 @@ describe('AuditsView', () => {
     mountInProviders(AuditsView, {}, { role: 'director' })
     await settle()
     const text = document.body.textContent!
-    expect(text).toContain('Demo club (whole club)')
+    expect(text).toContain('Whole club')
     expect(text).toContain('32.5%')
     expect(text).toContain('0.85')
     expect(text).toContain('a3f1c09e77b2')
@@ -54,7 +54,7 @@ describe('AuditsView', () => {
   it('shows a coach the list without the run form', async () => {
     mountInProviders(AuditsView, {}, { role: 'coach' })
     await settle()
-    expect(document.body.textContent).toContain('Demo club (whole club)')
+    expect(document.body.textContent).toContain('Whole club')
     expect(byTest('run-audit')).toBeNull()
     expect(api.listAuditSquads).not.toHaveBeenCalled()
   })

@@ -16,7 +16,8 @@ export function auditColumns(): DataTableColumns<AuditSummary> {
       minWidth: 160,
       render: (a) =>
         h(RouterLink, { to: { name: 'audit', params: { id: a.id } } }, () =>
-          a.squadId === null ? `${a.scopeName} (whole club)` : a.scopeName,
+          // the server names a squad's audit by the squad, the club's as "Whole club"
+          a.squadId === null ? 'Whole club' : `Squad: ${a.scopeName}`,
         ),
     },
     { title: 'As of', key: 'asOf', width: 110, sorter: (a, b) => a.asOf.localeCompare(b.asOf) },
