@@ -99,7 +99,7 @@ export const categoryLabels: Record<AgeCategory, string> = {
 const phaseLabels: Record<string, string> = {
   queued: 'Waiting to start',
   reading: 'Reading the catalogue, athletes and records',
-  records: 'Replaying the progress records',
+  records: 'Taking in each record’s steps as of the date',
   athletes: 'Balancing each athlete',
   gaps: 'Ranking the gaps',
   readiness: 'Checking readiness for the next category',
