@@ -15,7 +15,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
-import type { AuditFigures, AuditResult } from '../../shared/domain/audit.ts'
+import type { AuditFigures, AuditResult, StoredAuditResult } from '../../shared/domain/audit.ts'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
 import {
   directions,
@@ -420,11 +420,13 @@ export const audits = pgTable(
     asOf: date().notNull(),
     inputHash: text().notNull(),
     /**
-     * The whole AuditResult. Plain json (stored as written, compressed with lz4 where the server
-     * has it): it is only ever written once and read whole, and for a large club it runs to
-     * megabytes, which jsonb would parse and rebuild on every insert.
+     * The whole result, in its stored form (`packAuditResult`; rows written before it hold the
+     * full AuditResult, and `unpackAuditResult` reads both). Plain json (stored as written,
+     * compressed with lz4 where the server has it): it is only ever written once and read whole,
+     * and for a large club it runs to megabytes, which jsonb would parse and rebuild on every
+     * insert.
      */
-    result: json().$type<AuditResult>().notNull(),
+    result: json().$type<StoredAuditResult | AuditResult>().notNull(),
     /** The headline and the squad breakdown: what lists, trends and the board read. */
     figures: jsonb().$type<AuditFigures>().notNull(),
     createdBy: text().references(() => users.id, { onDelete: 'set null' }),

@@ -6,7 +6,9 @@ import {
   auditInputHash,
   compareAudits,
   defaultRequirementProfiles,
+  packAuditResult,
   runAudit,
+  unpackAuditResult,
   type AuditProgress,
   type AuditResult,
 } from '../../shared/domain/audit.ts'
@@ -166,7 +168,7 @@ export async function runAndStore(
       squadId: run.squadId,
       asOf,
       inputHash,
-      result,
+      result: packAuditResult(result),
       figures: auditFigures(result),
       createdBy: access.userId,
     })
@@ -259,7 +261,7 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
       ),
     )
   const previous = previousOf(scope, row)
-  const full = row.result
+  const full = unpackAuditResult(row.result)
   const readable = await readableSquadIds(db, access)
   const keep = (squadId: string) => readable === 'all' || readable.includes(squadId)
   const result: AuditResult = {

@@ -1,11 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { and, eq } from 'drizzle-orm'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
 import type { Database } from '../../server/db/client.ts'
+import { audits } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { listElements } from '../../server/services/catalogue.ts'
 import { appendHistory } from '../../server/services/progress.ts'
 import { createSquad } from '../../server/services/squads.ts'
+import { auditFigures, type StoredAuditResult } from '../../shared/domain/audit.ts'
 import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -114,6 +117,64 @@ describe('running an audit', () => {
     ).toEqual([[ada, backTuck, true]])
     expect(q2.athleteNames[ada]).toBe('Ada Quillmere')
     expect(q2.previous).toBeNull()
+  })
+
+  it('stores the gap list in its compact form and still reports full gap entries', async () => {
+    const [row] = await database.db
+      .select({ result: audits.result })
+      .from(audits)
+      .where(and(eq(audits.clubId, fx.club.id), eq(audits.id, q2.audit.id)))
+    const stored = row!.result as StoredAuditResult
+    expect(stored.format).toBe(2)
+    const adaAt = stored.athletes.findIndex((a) => a.athleteId === ada)
+    expect(adaAt).toBeGreaterThanOrEqual(0)
+    // back tuck at step index 3, front tuck never started: 3 − (−1) = 4 steps on equal progressions
+    expect(stored.gaps).toEqual([[adaAt, 0, 3, null, 4]])
+    expect(stored.gapElements).toEqual([
+      {
+        id: backTuck,
+        name: 'Back tuck',
+        rotationClass: 'single',
+        counterpartId: frontTuck,
+        counterpartName: 'Front tuck',
+      },
+    ])
+    expect(q2.result.gaps).toStrictEqual([
+      {
+        athleteId: ada,
+        squadId: fx.squad.id,
+        elementId: backTuck,
+        elementName: 'Back tuck',
+        rotationClass: 'single',
+        counterpartId: frontTuck,
+        counterpartName: 'Front tuck',
+        stepIndex: 3,
+        counterpartStepIndex: null,
+        deficitSteps: 4,
+        weight: 1,
+        weightedDeficit: 4,
+        counterpartMissing: false,
+        counterpartNeverStarted: true,
+      },
+    ])
+  })
+
+  it('reads an audit stored whole, before the compact form existed, as it was written', async () => {
+    const [row] = await database.db
+      .insert(audits)
+      .values({
+        clubId: fx.club.id,
+        squadId: fx.squad.id,
+        asOf: q2.audit.asOf,
+        inputHash: q2.audit.inputHash,
+        result: q2.result,
+        figures: auditFigures(q2.result),
+      })
+      .returning({ id: audits.id })
+    const legacy = (await director.get(`${base}/audits/${row!.id}`).expect(200)).body as AuditReport
+    expect(legacy.result).toStrictEqual(q2.result)
+    const csv = await director.get(`${base}/audits/${row!.id}/gaps.csv`).expect(200)
+    expect(csv.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,4,4')
   })
 
   it('gives the same hash and numbers over the same inputs', async () => {
