@@ -4,7 +4,6 @@ import type { Database } from '../../server/db/client.ts'
 import { progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
-import { listElements } from '../../server/services/catalogue.ts'
 import {
   appendHistory,
   backfillRecordTimelines,
@@ -13,7 +12,7 @@ import {
   type HistoryEvent,
 } from '../../server/services/progress.ts'
 import { freshDatabase } from '../support/database.ts'
-import { clubWithPeople } from '../support/fixtures.ts'
+import { clubWithPeople, floorTucks } from '../support/fixtures.ts'
 
 // What the audit reads as of a date: each record's steps by then and the athlete's recent pace
 // (steps per 30 days over the last 180 days). Definitions from the product brief: common practice
@@ -27,18 +26,7 @@ let frontTuck: string
 beforeAll(async () => {
   database = await freshDatabase()
   fx = await clubWithPeople(database.db, 'inputs')
-  const catalogue = await listElements(database.db, fx.club.id)
-  const pick = (direction: string) =>
-    catalogue.find(
-      (e) =>
-        e.apparatus === 'floor' &&
-        e.direction === direction &&
-        e.quarterRotations === 4 &&
-        e.twists[0] === 0 &&
-        e.shape === 'tuck',
-    )!.id
-  backTuck = pick('backward')
-  frontTuck = pick('forward')
+  ;({ backTuck, frontTuck } = await floorTucks(database.db, fx.club.id))
 })
 afterAll(async () => {
   await database.close()

@@ -5,14 +5,13 @@ import type TestAgent from 'supertest/lib/agent.js'
 import type { Database } from '../../server/db/client.ts'
 import { audits } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
-import { listElements } from '../../server/services/catalogue.ts'
 import { appendHistory } from '../../server/services/progress.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import { auditFigures, type StoredAuditResult } from '../../shared/domain/audit.ts'
 import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, signedIn } from '../support/fixtures.ts'
+import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
 
 // A worked example through the whole stack (events → replay as of a date → audit → stored
 // report), computed by hand with the brief's formulas:
@@ -43,18 +42,7 @@ beforeAll(async () => {
   coach = await signedIn(t, fx.people.coach.email)
   board = await signedIn(t, fx.people.board.email)
   base = `/api/clubs/${fx.club.id}`
-  const catalogue = await listElements(database.db, fx.club.id)
-  const pick = (direction: string) =>
-    catalogue.find(
-      (e) =>
-        e.apparatus === 'floor' &&
-        e.direction === direction &&
-        e.quarterRotations === 4 &&
-        e.twists[0] === 0 &&
-        e.shape === 'tuck',
-    )!.id
-  backTuck = pick('backward')
-  frontTuck = pick('forward')
+  ;({ backTuck, frontTuck } = await floorTucks(database.db, fx.club.id))
   const athlete = async ([givenName, familyName]: readonly [string, string]) =>
     (
       await createAthlete(database.db, fx.club.id, {

@@ -3,6 +3,7 @@ import request from 'supertest'
 import type { Role } from '../../shared/domain/club.ts'
 import { todayIso } from '../../shared/domain/access.ts'
 import type { DbOrTx } from '../../server/db/client.ts'
+import { listElements } from '../../server/services/catalogue.ts'
 import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { assignCoach, createSquad } from '../../server/services/squads.ts'
@@ -38,6 +39,21 @@ export async function clubWithPeople(db: DbOrTx, label = randomBytes(4).toString
     people[role] = { id: user.id, email, role }
   }
   return { club, squad, people }
+}
+
+/** The ids of the standard catalogue's floor back tuck and front tuck, a counterpart pair. */
+export async function floorTucks(db: DbOrTx, clubId: string) {
+  const catalogue = await listElements(db, clubId)
+  const pick = (direction: string) =>
+    catalogue.find(
+      (e) =>
+        e.apparatus === 'floor' &&
+        e.direction === direction &&
+        e.quarterRotations === 4 &&
+        e.twists[0] === 0 &&
+        e.shape === 'tuck',
+    )!.id
+  return { backTuck: pick('backward'), frontTuck: pick('forward') }
 }
 
 /** An agent signed in as `email`, sending this site's Origin like a browser would. */
