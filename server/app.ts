@@ -1,6 +1,7 @@
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import express from 'express'
+import compression from 'compression'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
 import type { Logger } from 'pino'
@@ -75,6 +76,8 @@ export function createApp({ env, database, logger, mailer, throttle, clientDir }
       strictTransportSecurity: env.TRUST_PROXY,
     }),
   )
+  // A large club's audit report runs to megabytes of JSON, read on tablets in the gym.
+  app.use(compression())
   app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }))
   app.use(express.json({ limit: '1mb' }))
 

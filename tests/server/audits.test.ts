@@ -201,6 +201,15 @@ describe('running an audit', () => {
     expect(stored.result.headline.clubFrontLag).toBeCloseTo(2 / 3, 10)
   })
 
+  it('sends the report compressed to a browser that accepts it', async () => {
+    const res = await director
+      .get(`${base}/audits/${q2.audit.id}`)
+      .set('Accept-Encoding', 'gzip')
+      .expect(200)
+    expect(res.headers['content-encoding']).toBe('gzip')
+    expect((res.body as AuditReport).audit.id).toBe(q2.audit.id)
+  })
+
   it('refuses a date still to come, naming the field', async () => {
     const res = await director.post(`${base}/audits`).send({ squadId: null, asOf: '2999-01-01' })
     expect(res.status).toBe(400)
