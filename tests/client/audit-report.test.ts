@@ -82,6 +82,8 @@ describe('AuditReportView', () => {
     expect(text).toContain('Back double tuck · step 4')
     expect(text).toContain('not in the catalogue')
     expect(text).toContain('Front tuck · step 3')
+    // the rank follows the weighted deficit, shown with its parts (a double weighs 2)
+    expect(text).toContain('4 × 2 = 8')
     expect(text).toContain('forecast 2025-08-30')
     expect(text).toContain('on time')
     expect(byTest('input-hash')!.textContent).toBe(auditReport().audit.inputHash)

@@ -53,12 +53,18 @@ export function auditGapColumns(context: AuditGapColumnContext): DataTableColumn
       render: counterpartCell,
     },
     {
-      title: 'Deficit (steps)',
-      key: 'deficitSteps',
-      width: 120,
+      // The rank follows the weighted figure, so it is shown, not left to a tooltip that a
+      // tablet never opens.
+      title: 'Deficit (steps × weight)',
+      key: 'weightedDeficit',
+      width: 170,
       align: 'right',
       render: (g) =>
-        h('span', { title: `Weighted by rotation class: ${g.weightedDeficit}` }, g.deficitSteps),
+        h('span', [
+          `${g.deficitSteps}`,
+          h('span', { style: muted }, ` × ${g.weight} = `),
+          `${g.weightedDeficit}`,
+        ]),
     },
   ]
 }
