@@ -1,7 +1,6 @@
-import { mount } from '@vue/test-utils'
-import { NConfigProvider, NDialogProvider, NMessageProvider } from 'naive-ui'
 import { createPinia, setActivePinia } from 'pinia'
-import { defineComponent, h, type Component } from 'vue'
+import { type Component } from 'vue'
+import { mountWithProviders } from './mount'
 import { createMemoryHistory, createRouter, type Router } from 'vue-router'
 import type { Role } from '@shared/domain/club'
 import { resolveAuditOptions, type AuditResult, type FigureChange } from '@shared/domain/audit'
@@ -67,21 +66,7 @@ export function mountInProviders(
   const pinia = createPinia()
   setActivePinia(pinia)
   signInAs(options.role ?? 'director')
-  const router = auditRouter()
-  const shell = defineComponent({
-    setup: () => () =>
-      h(NConfigProvider, null, () =>
-        h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(component, props))),
-      ),
-  })
-  const wrapper = mount(shell, {
-    attachTo: document.body,
-    global: {
-      plugins: [pinia, router],
-      stubs: { teleport: true },
-    },
-  })
-  return { wrapper, pinia, router }
+  return mountWithProviders(component, props, { router: auditRouter(), pinia })
 }
 
 export const wait = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))

@@ -1,7 +1,6 @@
-import { mount } from '@vue/test-utils'
-import { NDialogProvider, NMessageProvider } from 'naive-ui'
-import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { defineComponent, h, type Component } from 'vue'
+import type { Pinia } from 'pinia'
+import type { Component } from 'vue'
+import { mountWithProviders } from './mount'
 import { createMemoryHistory, createRouter, type Router } from 'vue-router'
 import { deriveElement, findCounterparts } from '@shared/domain/catalogue'
 import type { CatalogueElement, ElementInput } from '@shared/schemas/elements'
@@ -23,24 +22,16 @@ export function catalogueRouter(): Router {
   })
 }
 
-/** Mounts a component inside the Naive UI providers it needs (messages, dialogs), with Pinia. */
+/** Mounts a component inside the Naive UI providers, with Pinia and the catalogue's routes. */
 export function mountInProviders(
   component: Component,
   props: Record<string, unknown> = {},
   options: { pinia?: Pinia; router?: Router } = {},
 ) {
-  const pinia = options.pinia ?? createPinia()
-  setActivePinia(pinia)
-  const router = options.router ?? catalogueRouter()
-  const shell = defineComponent({
-    setup: () => () =>
-      h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(component, props))),
+  return mountWithProviders(component, props, {
+    router: options.router ?? catalogueRouter(),
+    pinia: options.pinia,
   })
-  const wrapper = mount(shell, {
-    attachTo: document.body,
-    global: { plugins: [pinia, router], stubs: { teleport: true } },
-  })
-  return { wrapper, pinia, router }
 }
 
 let serial = 0

@@ -1,7 +1,5 @@
-import { mount } from '@vue/test-utils'
-import { NConfigProvider, NDialogProvider, NMessageProvider } from 'naive-ui'
-import { createPinia, setActivePinia } from 'pinia'
-import { defineComponent, h, type Component } from 'vue'
+import type { Component } from 'vue'
+import { mountWithProviders } from './mount'
 import { createMemoryHistory, createRouter, type Router } from 'vue-router'
 import type { RecordDetail } from '@shared/schemas/progress'
 
@@ -22,22 +20,9 @@ export function progressRouter(): Router {
   })
 }
 
-/** Mounts a component inside the Naive UI providers (config, messages, dialogs), with Pinia. */
+/** Mounts a component inside the Naive UI providers, with Pinia and the progress routes. */
 export function mountInProviders(component: Component, props: Record<string, unknown> = {}) {
-  const pinia = createPinia()
-  setActivePinia(pinia)
-  const router = progressRouter()
-  const shell = defineComponent({
-    setup: () => () =>
-      h(NConfigProvider, null, () =>
-        h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(component, props))),
-      ),
-  })
-  const wrapper = mount(shell, {
-    attachTo: document.body,
-    global: { plugins: [pinia, router], stubs: { teleport: true } },
-  })
-  return { wrapper, pinia, router }
+  return mountWithProviders(component, props, { router: progressRouter() })
 }
 
 export const clubId = '11111111-1111-4111-8111-111111111111'
