@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
+  bigint,
   boolean,
   date,
   foreignKey,
@@ -14,6 +15,7 @@ import {
   timestamp,
   uniqueIndex,
   uuid,
+  varchar,
 } from 'drizzle-orm/pg-core'
 import type { AuditFigures, AuditResult, StoredAuditResult } from '../../shared/domain/audit.ts'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
@@ -473,3 +475,13 @@ export const ageThresholds = pgTable(
   },
   (t) => [primaryKey({ columns: [t.clubId, t.discipline] })],
 )
+
+/**
+ * Counters of the request limiters (rate-limiter-flexible's PostgreSQL store), shared by every
+ * server process. Columns as that library reads and writes them; `expire` is epoch milliseconds.
+ */
+export const rateLimits = pgTable('rate_limits', {
+  key: varchar({ length: 255 }).primaryKey(),
+  points: integer().notNull().default(0),
+  expire: bigint({ mode: 'number' }),
+})
