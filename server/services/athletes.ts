@@ -1,4 +1,3 @@
-import Papa from 'papaparse'
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
 import {
   athleteInputSchema,
@@ -11,6 +10,7 @@ import type { ImportIssue, ImportResult } from '../../shared/schemas/catalogue.t
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, squads } from '../db/schema.ts'
+import { toCsv } from '../http/csv.ts'
 import {
   assertCanReadSquad,
   assertCanWriteSquad,
@@ -172,14 +172,14 @@ export async function importRoster(
 
 export async function exportRoster(db: DbOrTx, access: ClubAccess, squadId?: string) {
   const list = await listAthletes(db, access, { squadId })
-  return Papa.unparse({
-    fields: [...rosterCsvColumns],
-    data: list.map((a) => ({
+  return toCsv(
+    rosterCsvColumns,
+    list.map((a) => ({
       givenName: a.givenName,
       familyName: a.familyName,
       birthYear: a.birthYear,
       squad: a.squadName,
       discipline: a.discipline,
     })),
-  })
+  )
 }

@@ -1,17 +1,17 @@
-import Papa from 'papaparse'
 import PDFDocument from 'pdfkit'
 import { fileURLToPath } from 'node:url'
 import type { CoverageCell } from '../../shared/domain/audit.ts'
 import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
+import { toCsv, type CsvCell } from '../http/csv.ts'
 
 const pct = (n: number | null) => (n === null ? '—' : `${(n * 100).toFixed(1)} %`)
 const ratio = (n: number | null) => (n === null ? '—' : n.toFixed(2))
 
 /** The ranked gap list as CSV, with names for people and the figures for spreadsheets. */
 export function gapsCsv(report: AuditReport) {
-  return Papa.unparse({
-    fields: [
+  return toCsv(
+    [
       'rank',
       'athlete',
       'squad',
@@ -22,7 +22,7 @@ export function gapsCsv(report: AuditReport) {
       'deficitSteps',
       'weightedDeficit',
     ],
-    data: report.result.gaps.map((g, i) => ({
+    report.result.gaps.map((g, i) => ({
       rank: i + 1,
       athlete: report.athleteNames[g.athleteId] ?? g.athleteId,
       squad: report.squadNames[g.squadId] ?? g.squadId,
@@ -33,13 +33,14 @@ export function gapsCsv(report: AuditReport) {
       deficitSteps: g.deficitSteps,
       weightedDeficit: g.weightedDeficit,
     })),
-  })
+  )
 }
 
 export function headlineCsv(report: AuditReport) {
   const h = report.result.headline
   const c = report.comparison
-  const rows = [
+  // Figures stay numbers: only text is escaped, so a negative change is read as a number.
+  const rows: CsvCell[][] = [
     ['athletes', h.athleteCount, c.athleteCount.change],
     ['front-lag', h.clubFrontLag, c.clubFrontLag.change],
     ['back-lag', h.clubBackLag, c.clubBackLag.change],
@@ -54,7 +55,7 @@ export function headlineCsv(report: AuditReport) {
       c.squadFrontLags[id]?.change ?? null,
     ]),
   ]
-  return Papa.unparse({ fields: ['figure', 'value', 'changeSincePrevious'], data: rows })
+  return toCsv(['figure', 'value', 'changeSincePrevious'], rows)
 }
 
 const font = (weight: 400 | 600) =>

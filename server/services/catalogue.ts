@@ -1,4 +1,3 @@
-import Papa from 'papaparse'
 import { and, asc, eq, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { deriveElement, findPrerequisiteCycle } from '../../shared/domain/catalogue.ts'
@@ -37,6 +36,7 @@ import {
   progressEvents,
   progressionTemplates,
 } from '../db/schema.ts'
+import { toCsv } from '../http/csv.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { recomputeElementRecords } from './progress.ts'
 
@@ -554,7 +554,10 @@ export async function importElements(
 
 export async function exportCsv(db: DbOrTx, clubId: string) {
   const list = await listElements(db, clubId)
-  return Papa.unparse({ fields: [...elementCsvColumns], data: list.map((e) => elementToCsvRow(e)) })
+  return toCsv(
+    elementCsvColumns,
+    list.map((e) => elementToCsvRow(e)),
+  )
 }
 
 export async function listTemplates(

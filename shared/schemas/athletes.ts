@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { disciplines } from '../domain/club.ts'
+import { csvRowsSchema } from './csv.ts'
 
 /** The oldest birth year accepted: a wide margin for adult and masters athletes. */
 export const earliestBirthYear = 1930
@@ -49,9 +50,6 @@ export const rosterCsvColumns = [
 
 /** POST /athletes/import: rows keyed by the CSV header; all or nothing. */
 export const rosterImportSchema = z.object({
-  rows: z
-    .array(z.record(z.string(), z.unknown()))
-    .min(1, 'The file has no rows.')
-    .max(5000, 'At most 5000 rows at once.'),
+  rows: csvRowsSchema(5000),
   dryRun: z.boolean().default(false),
 })

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { directions, rotationClasses, shapes, twistBands } from '../domain/element.ts'
+import { csvRowsSchema } from './csv.ts'
 import { elementSchema } from './elements.ts'
 import { progressionStepSchema, progressionStepsSchema } from './progressions.ts'
 
@@ -58,10 +59,7 @@ export const prerequisitesUpdateSchema = z.object({
 
 /** POST /elements/import: rows already read from CSV; nothing is saved unless all are valid. */
 export const elementImportSchema = z.object({
-  rows: z
-    .array(z.record(z.string(), z.unknown()))
-    .min(1, 'The file has no rows.')
-    .max(2000, 'At most 2000 rows at once.'),
+  rows: csvRowsSchema(2000),
   /** Check only: answer the per-row errors without saving. */
   dryRun: z.boolean().default(false),
 })

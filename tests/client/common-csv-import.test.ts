@@ -184,6 +184,38 @@ describe('CommonCsvImportDialog', () => {
     expect(onUpdateShow).not.toHaveBeenCalled()
   })
 
+  it('shows cells the server would not read by row and field, and imports nothing', async () => {
+    const message =
+      'Remove a tab from the cell: a cell is one line of text without control characters.'
+    const importRows = vi
+      .fn<CsvImportRequest>()
+      .mockRejectedValue(
+        new ApiError(400, 'invalid_input', 'Some fields are not valid.', [
+          { path: 'rows.2.size', message },
+        ]),
+      )
+    mountDialog(importRows)
+    await chooseCsvFile([header, 'Blue mat,2m,blue', 'Red mat,"3\tm",red'].join('\n'))
+
+    expect(importRows.mock.calls[0]![0][1]).toEqual({
+      name: 'Red mat',
+      size: '3\tm',
+      colour: 'red',
+    })
+    expect(tableRows('[data-test="import-errors"]')).toEqual([['2', 'size', message]])
+    expect(importButton().disabled).toBe(true)
+    expect(importRows).not.toHaveBeenCalledWith(expect.anything(), false)
+  })
+
+  it('sends only the header’s columns of a row with more cells than the header', async () => {
+    const importRows = vi.fn<CsvImportRequest>().mockResolvedValue(allValid)
+    mountDialog(importRows)
+    await chooseCsvFile([header, 'Blue mat,2m,blue,spare'].join('\n'))
+
+    expect(text('[data-test="import-file-problems"]')).toContain('Too many fields')
+    expect(importRows.mock.calls[0]![0]).toEqual([{ name: 'Blue mat', size: '2m', colour: 'blue' }])
+  })
+
   it('shows progress, imports every row once the dry run is valid and emits the result', async () => {
     const dryRun = deferred<ImportResult>()
     const realRun = deferred<ImportResult>()
