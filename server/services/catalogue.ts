@@ -37,7 +37,7 @@ import {
   progressionTemplates,
 } from '../db/schema.ts'
 import { toCsv } from '../http/csv.ts'
-import { AppError, notFound } from '../http/errors.ts'
+import { AppError, conflict, notFound } from '../http/errors.ts'
 import { recomputeElementRecords } from './progress.ts'
 
 type ElementRow = typeof elements.$inferSelect
@@ -141,7 +141,7 @@ export async function getElement(db: DbOrTx, clubId: string, id: string): Promis
   const [element] = await selectElements(db, clubId, [eq(elements.id, id)])
   if (!element) throw notFound('No such element in this club’s catalogue.')
   const [row] = await db
-    .select({ templateFamily: elements.templateFamily })
+    .select({ templateFamily: elements.templateFamily, stepsVersion: elements.stepsVersion })
     .from(elements)
     .where(and(eq(elements.clubId, clubId), eq(elements.id, id)))
   const required = alias(elements, 'required')
@@ -176,6 +176,7 @@ export async function getElement(db: DbOrTx, clubId: string, id: string): Promis
     prerequisites,
     athletesWithRecords: await athletesWithRecords(db, clubId, id),
     templateFamily: row!.templateFamily,
+    stepsVersion: row!.stepsVersion,
   }
 }
 
@@ -311,7 +312,9 @@ export async function deleteElement(db: DbOrTx, access: ClubAccess, id: string) 
 /**
  * New steps for an element. With athletes on it the director must map every old step to a new
  * one; the mapping is kept, and the records are read through it, so none is lost or moved
- * silently.
+ * silently. The edit applies only to the steps version it was made against, checked under the
+ * element's row lock: of two edits made from the same version one wins and the other gets 409
+ * with the element as it stands, so a mapping is never applied on top of itself.
  */
 export async function replaceSteps(
   db: DbOrTx,
@@ -326,6 +329,12 @@ export async function replaceSteps(
       .where(and(eq(elements.clubId, access.clubId), eq(elements.id, id)))
       .for('update')
     if (!current) throw notFound('No such element in this club’s catalogue.')
+    if (current.stepsVersion !== update.stepsVersion) {
+      throw conflict(
+        'Someone else has just changed this progression. Here it is as it stands now; check it and make your change again.',
+        { element: await getElement(tx, access.clubId, id) },
+      )
+    }
     const old = await stepsOf(tx, access.clubId, id)
     const athletes = await athletesWithRecords(tx, access.clubId, id)
     if (athletes > 0) {
@@ -387,7 +396,12 @@ export async function replaceSteps(
   return getElement(db, access.clubId, id)
 }
 
-/** The whole prerequisite list of one element; a cycle is refused and named. */
+/**
+ * The whole prerequisite list of one element; a cycle is refused and named. The club's elements
+ * are locked (in id order, so that two edits cannot deadlock) for the length of the change: two
+ * edits at once would otherwise each check for a cycle without seeing the other, and two
+ * identical ones would both insert the same rows.
+ */
 export async function replacePrerequisites(
   db: DbOrTx,
   access: ClubAccess,
@@ -399,6 +413,9 @@ export async function replacePrerequisites(
       .select({ id: elements.id, name: elements.name, apparatus: elements.apparatus })
       .from(elements)
       .where(eq(elements.clubId, access.clubId))
+      .orderBy(asc(elements.id))
+      // Not 'update': that would also hold back every progress event referencing an element.
+      .for('no key update')
     const byId = new Map(rows.map((r) => [r.id, r]))
     if (!byId.has(id)) throw notFound('No such element in this club’s catalogue.')
     for (const [i, p] of list.entries()) {

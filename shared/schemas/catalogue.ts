@@ -39,16 +39,24 @@ export const elementDetailSchema = elementSchema.safeExtend({
   /** How many athletes have a record on this element (deleting is refused while any do). */
   athletesWithRecords: z.number().int().min(0),
   templateFamily: z.string(),
+  /** The version of `steps`: an edit of them sends it back and is refused once it is stale. */
+  stepsVersion: z.number().int().min(1),
 })
 export type ElementDetail = z.infer<typeof elementDetailSchema>
 
 /**
  * PUT /elements/:id/steps. While athletes have records on the element the change must say where
- * each old step goes: `mapping[oldIndex] = newIndex`, one entry per old step.
+ * each old step goes: `mapping[oldIndex] = newIndex`, one entry per old step. `stepsVersion` is
+ * the version of the steps the edit was made against; if they have changed since, the server
+ * answers 409 with the element as it now stands and applies nothing.
  */
 export const stepsUpdateSchema = z.object({
   steps: progressionStepsSchema,
   mapping: z.array(z.number().int().min(0)).nullish(),
+  stepsVersion: z
+    .number({ error: 'Send the version of the progression this edit was made against.' })
+    .int('The progression version is a whole number.')
+    .min(1, 'The progression version is a whole number from 1.'),
 })
 export type StepsUpdate = z.infer<typeof stepsUpdateSchema>
 

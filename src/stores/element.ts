@@ -1,9 +1,17 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
-import type { ElementDetail, Prerequisite } from '@shared/schemas/catalogue'
+import { z } from 'zod'
+import {
+  elementDetailSchema,
+  type ElementDetail,
+  type Prerequisite,
+} from '@shared/schemas/catalogue'
 import type { ProgressionStep } from '@shared/schemas/progressions'
 import * as api from '@/api/elements'
+import { ApiError } from '@/api/http'
 import { useCatalogueStore } from './catalogue'
+
+const conflictBodySchema = z.object({ error: z.object({ element: elementDetailSchema }) })
 
 /** One element with its progression and prerequisites (the element page and its editors). */
 export const useElementStore = defineStore('element', () => {
@@ -33,17 +41,41 @@ export const useElementStore = defineStore('element', () => {
   }
 
   /**
-   * Saves a new progression. While athletes have records the server answers 409
-   * `steps_need_mapping` unless `mapping` says where each old step goes; the error comes through
-   * for the editor to ask.
+   * Saves a new progression made against `stepsVersion` of the steps. While athletes have records
+   * the server answers 409 `steps_need_mapping` unless `mapping` says where each old step goes;
+   * the error comes through for the editor to ask. If someone else has changed the steps since,
+   * the server answers 409 `conflict` with the element as it now stands: that is kept here, so
+   * the page shows the current steps, and the error comes through for the editor to explain.
    */
   async function saveSteps(
     clubId: string,
     id: string,
     steps: ProgressionStep[],
+    stepsVersion: number,
     mapping?: number[],
   ) {
-    keep(await api.updateSteps(clubId, id, mapping ? { steps, mapping } : { steps }))
+    try {
+      keep(
+        await api.updateSteps(
+          clubId,
+          id,
+          mapping ? { steps, mapping, stepsVersion } : { steps, stepsVersion },
+        ),
+      )
+    } catch (err) {
+      if (err instanceof ApiError && err.code === 'conflict') await keepCurrent(clubId, id, err)
+      throw err
+    }
+  }
+
+  async function keepCurrent(clubId: string, id: string, conflict: ApiError) {
+    const answered = conflictBodySchema.safeParse(conflict.body)
+    if (answered.success) return keep(answered.data.error.element)
+    try {
+      keep(await api.getElement(clubId, id))
+    } catch {
+      // The conflict itself is what the person needs to hear about; a failed reload adds nothing.
+    }
   }
 
   /** Saves the whole prerequisite list; a 400 `prerequisite_cycle` names the cycle. */

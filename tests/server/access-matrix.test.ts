@@ -201,7 +201,7 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async (f) => ({
       path: `/elements/${await throwawayElement(f)}/steps`,
-      body: { steps: oneStep },
+      body: { steps: oneStep, stepsVersion: 1 },
     }),
   },
   'PUT /elements/:id/prerequisites': {

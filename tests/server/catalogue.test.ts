@@ -307,21 +307,25 @@ describe('records on an element', () => {
       { name: 'Drills', modality: 'floor-drill', criterion: 'Shapes held for 5 s.' },
       { name: 'In a routine', modality: 'routine', criterion: 'Twice in a routine.' },
     ]
-    const refused = await director.put(`${base}/elements/${element.id}/steps`).send({ steps })
+    const { stepsVersion } = detail
+    const refused = await director
+      .put(`${base}/elements/${element.id}/steps`)
+      .send({ steps, stepsVersion })
     expect(refused.status).toBe(409)
     expect(refused.body.error.code).toBe('steps_need_mapping')
     expect(refused.body.error.currentSteps).toHaveLength(detail.steps.length)
 
     const short = await director
       .put(`${base}/elements/${element.id}/steps`)
-      .send({ steps, mapping: [0] })
+      .send({ steps, mapping: [0], stepsVersion })
     expect(short.status).toBe(400)
 
     const mapping = detail.steps.map((_: unknown, i: number) => (i < 2 ? 0 : 1))
     const saved = await director
       .put(`${base}/elements/${element.id}/steps`)
-      .send({ steps, mapping })
+      .send({ steps, mapping, stepsVersion })
       .expect(200)
+    expect(saved.body.stepsVersion).toBe(stepsVersion + 1)
     expect(saved.body.steps.map((s: { name: string }) => s.name)).toEqual([
       'Drills',
       'In a routine',

@@ -542,7 +542,10 @@ describe('the squad grid and the missing-skills list', () => {
       { name: 'Routine', modality: 'routine', criterion: 'Twice in a routine.' },
     ]
     const mapping = detail.steps.map((_: unknown, i: number) => Math.min(2, Math.floor(i / 3)))
-    await director.put(`${base}/elements/${element.id}/steps`).send({ steps, mapping }).expect(200)
+    await director
+      .put(`${base}/elements/${element.id}/steps`)
+      .send({ steps, mapping, stepsVersion: detail.stepsVersion })
+      .expect(200)
     const record = (
       await director.get(`${base}/athletes/${athlete.id}/records/${element.id}`).expect(200)
     ).body
