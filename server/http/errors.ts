@@ -33,6 +33,62 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new AppError(404, 'not_found', `No API route for ${req.method} ${req.path}`))
 }
 
+/** How long a client should wait before retrying while the database is unreachable. */
+const retryAfterSeconds = 5
+
+// pg's own messages when it cannot reach the server or loses the connection.
+const connectionMessages = [
+  /^connect E[A-Z]+/,
+  /^Connection terminated/,
+  /timeout exceeded when trying to connect/,
+  /^Client has encountered a connection error/,
+]
+const connectionErrnos = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  'EPIPE',
+  'ENOTFOUND',
+  'EAI_AGAIN',
+])
+// SQLSTATE 57P01 admin shutdown, 57P02 crash shutdown, 57P03 cannot connect now, 53300 too many
+// connections; class 08 is every connection exception.
+const unavailableStates = new Set(['57P01', '57P02', '57P03', '53300'])
+
+/**
+ * True when the error, or anything it wraps (a Drizzle query error's `cause`, the attempts of an
+ * AggregateError), says the database cannot be reached: the request may well succeed later.
+ */
+export function isDatabaseUnreachable(err: unknown, depth = 0): boolean {
+  if (depth > 5 || err === null || typeof err !== 'object') return false
+  // The mail transport reports its own connection failures with the SMTP command in flight:
+  // those are the mail server's, not the database's.
+  if ('command' in err) return false
+  const { code, message, syscall, cause, errors } = err as {
+    code?: unknown
+    message?: unknown
+    syscall?: unknown
+    cause?: unknown
+    errors?: unknown
+  }
+  if (typeof code === 'string') {
+    if (/^08[0-9A-Z]{3}$/.test(code) || unavailableStates.has(code)) return true
+    if (connectionErrnos.has(code) || (syscall === 'connect' && /^E[A-Z]+$/.test(code))) return true
+  }
+  if (typeof message === 'string' && connectionMessages.some((m) => m.test(message))) return true
+  if (Array.isArray(errors) && errors.some((e) => isDatabaseUnreachable(e, depth + 1))) return true
+  return isDatabaseUnreachable(cause, depth + 1)
+}
+
+/** PostgreSQL refused a character in a text value (NUL above all), wherever it came from. */
+function isUnstorableText(err: unknown, depth = 0): boolean {
+  if (depth > 5 || err === null || typeof err !== 'object') return false
+  const { code, cause } = err as { code?: unknown; cause?: unknown }
+  return code === '22021' || code === '22P05' || isUnstorableText(cause, depth + 1)
+}
+
 interface BodyParserError extends Error {
   type?: string
   status?: number
@@ -66,11 +122,32 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   ) {
     status = (err as BodyParserError).status!
     body = { error: { code: 'bad_request', message: (err as Error).message } }
+  } else if (isUnstorableText(err)) {
+    // A field the input checks did not reach; the message names what to do, if not where.
+    status = 400
+    body = {
+      error: {
+        code: 'invalid_input',
+        message: 'Some text holds a character that cannot be saved, such as NUL. Retype it.',
+      },
+    }
+  } else if (isDatabaseUnreachable(err)) {
+    status = 503
+    req.log?.warn({ err }, 'database unreachable')
+    res.setHeader('Retry-After', String(retryAfterSeconds))
+    body = {
+      error: {
+        code: 'unavailable',
+        message: 'The database is not reachable right now. Try again in a moment.',
+      },
+    }
   } else {
     req.log?.error({ err }, 'unhandled error')
     body = {
       error: { code: 'internal', message: 'Something went wrong on our side. Please try again.' },
     }
   }
+  // An error is about this moment and this person: never worth keeping in a cache.
+  res.setHeader('Cache-Control', 'no-store')
   res.status(status).json(body)
 }

@@ -1,13 +1,14 @@
 import { z } from 'zod'
 import { disciplines } from '../domain/club.ts'
 import { csvRowsSchema } from './csv.ts'
+import { somethingToChange, text } from './text.ts'
 
 /** The oldest birth year accepted: a wide margin for adult and masters athletes. */
 export const earliestBirthYear = 1930
 
 export const athleteInputSchema = z.object({
-  givenName: z.string().trim().min(1, 'Enter the given name.').max(80),
-  familyName: z.string().trim().min(1, 'Enter the family name.').max(80),
+  givenName: text().min(1, 'Enter the given name.').max(80),
+  familyName: text().min(1, 'Enter the family name.').max(80),
   birthYear: z
     .number({ error: 'Enter the birth year as a number, e.g. 2014.' })
     .int()
@@ -18,10 +19,13 @@ export const athleteInputSchema = z.object({
 })
 export type AthleteInput = z.infer<typeof athleteInputSchema>
 
-/** PATCH /athletes/:athleteId: any subset; moving squads keeps the history. */
-export const athleteUpdateSchema = athleteInputSchema.partial().extend({
-  archived: z.boolean().optional(),
-})
+/** PATCH /athletes/:athleteId: any subset but none at all; moving squads keeps the history. */
+export const athleteUpdateSchema = athleteInputSchema
+  .partial()
+  .extend({
+    archived: z.boolean().optional(),
+  })
+  .superRefine(somethingToChange('Nothing to change: send at least one field of the athlete.'))
 export type AthleteUpdate = z.infer<typeof athleteUpdateSchema>
 
 export const athleteViewSchema = athleteInputSchema.extend({

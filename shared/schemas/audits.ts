@@ -4,6 +4,7 @@ import type { AuditComparison, AuditResult } from '../domain/audit.ts'
 import { disciplines } from '../domain/club.ts'
 import { directions, rotationClasses, twistBands } from '../domain/element.ts'
 import { isoDateSchema } from './auth.ts'
+import { text } from './text.ts'
 
 /** POST /audits: a scope (the club, or one squad) and an as-of date or the end of a quarter. */
 export const auditRunSchema = z
@@ -62,8 +63,8 @@ export interface AuditReport {
 
 const requirementSchema = z.object({
   id: z.string().min(1).max(60),
-  label: z.string().trim().min(1, 'Describe the requirement.').max(200),
-  source: z.string().trim().min(1, 'Name the source, or write "from memory".').max(300),
+  label: text().min(1, 'Describe the requirement.').max(200),
+  source: text().min(1, 'Name the source, or write "from memory".').max(300),
   matches: z.object({
     direction: z.union([z.enum(directions), z.array(z.enum(directions)).min(1)]).optional(),
     minRotationClass: z.enum(rotationClasses).optional(),
@@ -78,10 +79,10 @@ const requirementSchema = z.object({
  */
 export const requirementProfileSchema = z.object({
   id: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Use lower-case letters, digits and dashes.'),
-  label: z.string().trim().min(1, 'Name the profile.').max(200),
+  label: text().min(1, 'Name the profile.').max(200),
   discipline: z.enum(disciplines, 'Choose a discipline.'),
   categories: z.array(z.enum(ageCategories)).min(1, 'Choose at least one category.'),
-  source: z.string().trim().min(1, 'Name the source, or write "from memory".').max(300),
+  source: text().min(1, 'Name the source, or write "from memory".').max(300),
   requirements: z
     .array(requirementSchema)
     .min(1, 'A profile needs at least one requirement.')
@@ -94,7 +95,7 @@ export const ageThresholdInputSchema = z
   .object({
     juniorFromAge: z.number().int().min(5).max(30),
     seniorFromAge: z.number().int().min(6).max(40),
-    source: z.string().trim().min(1, 'Name the source, or write "from memory".').max(300),
+    source: text().min(1, 'Name the source, or write "from memory".').max(300),
   })
   .refine((v) => v.seniorFromAge > v.juniorFromAge, {
     path: ['seniorFromAge'],

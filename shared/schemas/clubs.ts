@@ -1,7 +1,8 @@
 import { z } from 'zod'
+import { text } from './text.ts'
 
 export const clubInputSchema = z.object({
-  name: z.string().trim().min(2, 'Enter the club name.').max(120),
+  name: text().min(2, 'Enter the club name.').max(120),
   slug: z
     .string()
     .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Use lower-case letters, digits and dashes.')

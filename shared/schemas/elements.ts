@@ -7,6 +7,7 @@ import {
   saltoCount,
 } from '../domain/catalogue.ts'
 import { directions, rotationClasses, shapes, takeOffs, twistBands } from '../domain/element.ts'
+import { text } from './text.ts'
 
 const saltoWords = ['single', 'double', 'triple', 'quadruple']
 
@@ -16,9 +17,7 @@ function saltoPhrase(count: number): string {
 }
 
 const elementFields = {
-  name: z
-    .string({ error: 'Enter the element name.' })
-    .trim()
+  name: text({ error: 'Enter the element name.' })
     .min(1, 'Enter the element name.')
     .max(80, 'Keep the element name to 80 characters or fewer.'),
   apparatus: z
@@ -57,7 +56,7 @@ const elementFields = {
   difficultyLetter: z
     .enum(difficultyLetters, { error: 'The difficulty letter must be one of A to J.' })
     .nullish(),
-  notes: z.string().trim().max(2000, 'Keep the notes to 2000 characters or fewer.').nullish(),
+  notes: text().max(2000, 'Keep the notes to 2000 characters or fewer.').nullish(),
 }
 
 type ElementFields = z.infer<z.ZodObject<typeof elementFields>>

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { pauseReasons } from '../domain/progress.ts'
 import { isoDateSchema } from './auth.ts'
+import { text } from './text.ts'
 
 /** POST /athletes/:athleteId/events (and /events/check to preview the checks). */
 export const progressEventInputSchema = z
@@ -16,8 +17,8 @@ export const progressEventInputSchema = z
       (d) => d <= new Date(Date.now() + 86_400_000).toISOString().slice(0, 10),
       'The date cannot be in the future.',
     ),
-    note: z.string().trim().max(1000, 'Keep the note to 1000 characters.').nullish(),
-    skipReason: z.string().trim().max(500, 'Keep the reason to 500 characters.').nullish(),
+    note: text().max(1000, 'Keep the note to 1000 characters.').nullish(),
+    skipReason: text().max(500, 'Keep the reason to 500 characters.').nullish(),
     /** A correction: the earlier, mistaken event that this one voids. */
     correctsEventId: z.uuid().nullish(),
     /**

@@ -1,18 +1,15 @@
 import { z } from 'zod'
 import { modalities } from '../domain/element.ts'
+import { text } from './text.ts'
 
 export const maxProgressionSteps = 20
 
 export const progressionStepSchema = z.object({
-  name: z
-    .string({ error: 'Enter the step name.' })
-    .trim()
+  name: text({ error: 'Enter the step name.' })
     .min(1, 'Enter the step name.')
     .max(80, 'Keep the step name to 80 characters or fewer.'),
   modality: z.enum(modalities, { error: 'Choose where the step is done (the modality).' }),
-  criterion: z
-    .string({ error: 'Enter the criterion an athlete must meet to pass the step.' })
-    .trim()
+  criterion: text({ error: 'Enter the criterion an athlete must meet to pass the step.' })
     .min(1, 'Enter the criterion an athlete must meet to pass the step.')
     .max(500, 'Keep the criterion to 500 characters or fewer.'),
   minDays: z

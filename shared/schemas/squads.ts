@@ -1,8 +1,9 @@
 import { z } from 'zod'
 import { disciplines, squadLevels } from '../domain/club.ts'
+import { text } from './text.ts'
 
 export const squadInputSchema = z.object({
-  name: z.string().trim().min(1, 'Give the squad a name.').max(80),
+  name: text().min(1, 'Give the squad a name.').max(80),
   level: z.enum(squadLevels),
   discipline: z.enum(disciplines),
 })
