@@ -8,10 +8,11 @@ import { report, time, withBenchDatabase } from './harness.ts'
 /** The cost of the HTTP stack on the lightest route, against the one query that route makes. */
 export default async function healthBench() {
   await withBenchDatabase(async (database) => {
-    const mailer = await createMailer({ MAIL_FROM: 'bench <b@x.invalid>' })
+    const env = parseEnv({ LOG_LEVEL: 'silent' })
+    const mailer = await createMailer(env)
     const app = createApp({
       mailer,
-      env: parseEnv({ LOG_LEVEL: 'silent' }),
+      env,
       database,
       logger: pino({ level: 'silent' }),
     })

@@ -7,11 +7,18 @@ import { pinoHttp } from 'pino-http'
 import type { Logger } from 'pino'
 import { requireClubAccess } from './auth/club-access.ts'
 import { createSessions } from './auth/sessions.ts'
-import { SignInThrottle } from './auth/throttle.ts'
+import {
+  createLimits,
+  defaultPasswordRules,
+  defaultResetRules,
+  type LimitRules,
+} from './auth/limits.ts'
 import type { AppContext } from './context.ts'
 import type { Database } from './db/client.ts'
 import type { Env } from './env.ts'
 import { apiNotFound, errorHandler } from './http/errors.ts'
+import { refuseNulCharacters } from './http/input-guards.ts'
+import { noStore } from './http/no-store.ts'
 import { requireSameOrigin } from './http/same-origin.ts'
 import type { Mailer } from './mail/mailer.ts'
 import { authRouter } from './routes/auth.ts'
@@ -25,12 +32,13 @@ export interface AppOptions {
   database: Database
   logger: Logger
   mailer: Mailer
-  throttle?: SignInThrottle
+  /** Limits on password checks and reset requests; tests make them small. */
+  limits?: LimitRules
   /** The built client (vite build output) to serve; omitted in tests and under `npm run dev`. */
   clientDir?: string
 }
 
-export function createApp({ env, database, logger, mailer, throttle, clientDir }: AppOptions) {
+export function createApp({ env, database, logger, mailer, limits, clientDir }: AppOptions) {
   const sessions = createSessions(database.db, {
     idleMinutes: env.SESSION_IDLE_MINUTES,
     absoluteHours: env.SESSION_ABSOLUTE_HOURS,
@@ -41,7 +49,10 @@ export function createApp({ env, database, logger, mailer, throttle, clientDir }
     db: database.db,
     sessions,
     mailer,
-    throttle: throttle ?? new SignInThrottle(),
+    limits: createLimits(
+      database.pool,
+      limits ?? { password: defaultPasswordRules, reset: defaultResetRules },
+    ),
     logger,
     auditJobs: new AuditJobs(database.db, logger),
   }
@@ -83,6 +94,8 @@ export function createApp({ env, database, logger, mailer, throttle, clientDir }
 
   const api = express.Router()
   api.use(requireSameOrigin(env.PUBLIC_URL))
+  api.use(noStore)
+  api.use(refuseNulCharacters)
   api.use(healthRouter(database))
   api.use(sessions.load)
   api.use('/auth', authRouter(ctx))

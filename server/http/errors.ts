@@ -110,6 +110,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   } else if (err instanceof AppError) {
     status = err.status
     body = { error: { code: err.code, message: err.message, issues: err.issues, ...err.details } }
+    // A limit's refusal says when to come back, in the header as in the body.
+    const wait = err.details?.retryAfterSeconds
+    if (typeof wait === 'number') res.setHeader('Retry-After', String(wait))
   } else if ((err as BodyParserError).type === 'entity.parse.failed') {
     status = 400
     body = { error: { code: 'malformed_json', message: 'The request body is not valid JSON.' } }

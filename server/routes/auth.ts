@@ -1,8 +1,9 @@
-import { Router } from 'express'
+import { Router, type Request } from 'express'
 import { z } from 'zod'
 import {
   acceptInvitationSchema,
   changePasswordSchema,
+  type LocalMail,
   resetConfirmSchema,
   resetRequestSchema,
   signInSchema,
@@ -22,29 +23,19 @@ import {
 } from '../services/accounts.ts'
 import { acceptInvitation, previewInvitation } from '../services/members.ts'
 
+/** The client's address as Express resolves it (through X-Forwarded-For only with TRUST_PROXY). */
+const clientOf = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown'
+
 /** /api/auth: signing in and out, the person's own account and sessions, invitations, resets. */
 export function authRouter(ctx: AppContext) {
   const router = Router()
 
   router.post('/sign-in', async (req, res) => {
     const input = signInSchema.parse(req.body)
-    const wait = ctx.throttle.retryAfter(input.email)
-    if (wait > 0) {
-      req.log.warn({ event: 'sign-in-throttled' }, 'sign-in throttled')
-      res.setHeader('Retry-After', String(wait))
-      throw new AppError(
-        429,
-        'too_many_attempts',
-        `Too many failed attempts for this account. Try again in ${wait} seconds.`,
-        undefined,
-        {
-          retryAfterSeconds: wait,
-        },
-      )
-    }
-    const user = await checkCredentials(ctx.db, input.email, input.password)
+    const user = await ctx.limits.checkPassword(input.email, clientOf(req), () =>
+      checkCredentials(ctx.db, input.email, input.password),
+    )
     if (!user) {
-      ctx.throttle.recordFailure(input.email)
       req.log.warn({ event: 'sign-in-failed' }, 'sign-in failed')
       throw new AppError(
         401,
@@ -52,17 +43,18 @@ export function authRouter(ctx: AppContext) {
         'That e-mail and password do not match an account.',
       )
     }
-    ctx.throttle.recordSuccess(input.email)
     // A new session at every sign-in: a session id planted before sign-in is worthless.
     if (req.auth) await ctx.sessions.lucia.invalidateSession(req.auth.session.id)
     const memberships = await membershipViews(ctx.db, user.id)
     const clubId = memberships.find((m) => m.accessOpen)?.clubId ?? memberships[0]?.clubId ?? null
-    const session = await ctx.sessions.start(res, user.id, {
-      clubId,
-      userAgent: req.get('user-agent'),
-    })
+    const session = await ctx.sessions.start(req, res, user.id, { clubId })
     req.log.info({ event: 'sign-in', userId: user.id }, 'signed in')
     res.json(await describeMe(ctx, user, session.clubId))
+  })
+
+  // Where the demo's mail goes. The viewer itself answers only on this computer's loopback.
+  router.get('/local-mail', (_req, res) => {
+    res.json({ url: ctx.mailer.viewer?.url ?? null } satisfies LocalMail)
   })
 
   router.post('/sign-out', async (req, res) => {
@@ -104,14 +96,21 @@ export function authRouter(ctx: AppContext) {
 
   router.post('/password', requireSignIn, async (req, res) => {
     const input = changePasswordSchema.parse(req.body)
-    await changePassword(ctx, req.auth!.user.id, input.currentPassword, input.newPassword)
+    await changePassword(
+      ctx,
+      req.auth!.user,
+      clientOf(req),
+      input.currentPassword,
+      input.newPassword,
+    )
     await ctx.sessions.endOthers(req.auth!.user.id, req.auth!.session.id)
     res.status(204).end()
   })
 
   router.post('/password-reset/request', async (req, res) => {
     const { email } = resetRequestSchema.parse(req.body)
-    await requestPasswordReset(ctx, email, publicOrigin(ctx.env, req))
+    await ctx.limits.assertResetAllowed(email, clientOf(req))
+    await requestPasswordReset(ctx, email, publicOrigin(ctx.env))
     // The same answer whether or not the address has an account.
     res.status(202).json({ message: 'If that address has an account, a reset link is on its way.' })
   })
@@ -119,7 +118,7 @@ export function authRouter(ctx: AppContext) {
   router.post('/password-reset/confirm', async (req, res) => {
     const input = resetConfirmSchema.parse(req.body)
     await confirmPasswordReset(ctx, input.token, input.newPassword)
-    ctx.sessions.clearCookie(res)
+    ctx.sessions.clearCookie(req, res)
     res.status(204).end()
   })
 
@@ -131,9 +130,9 @@ export function authRouter(ctx: AppContext) {
 
   router.post('/invitations/accept', async (req, res) => {
     const input = acceptInvitationSchema.parse(req.body)
-    const { user, clubId } = await acceptInvitation(ctx, input)
+    const { user, clubId } = await acceptInvitation(ctx, input, clientOf(req))
     if (req.auth) await ctx.sessions.lucia.invalidateSession(req.auth.session.id)
-    await ctx.sessions.start(res, user.id, { clubId, userAgent: req.get('user-agent') })
+    await ctx.sessions.start(req, res, user.id, { clubId })
     req.log.info({ event: 'invitation-accepted', userId: user.id, clubId }, 'invitation accepted')
     res.json(await describeMe(ctx, user, clubId))
   })

@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { and, eq, gt, isNull, ne, sql } from 'drizzle-orm'
 import type { Me, MembershipView } from '../../shared/schemas/auth.ts'
 import { todayIso, windowOpen } from '../../shared/domain/access.ts'
 import { hashPassword, verifyPassword } from '../auth/password.ts'
@@ -73,18 +73,23 @@ export async function describeMe(
     user: { id: user.id, email: user.email, name: user.name },
     memberships: list,
     activeClubId: active?.clubId ?? null,
-    fakeMail: Boolean(ctx.mailer.fake),
   }
 }
 
+/** Changes the person's password; the current one is checked through the password limits. */
 export async function changePassword(
   ctx: AppContext,
-  userId: string,
+  person: { id: string; email: string },
+  client: string,
   current: string,
   next: string,
 ) {
+  const userId = person.id
   const [user] = await ctx.db.select().from(users).where(eq(users.id, userId))
-  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current))) {
+  const matches = await ctx.limits.checkPassword(person.email, client, async () =>
+    Boolean(user?.passwordHash && (await verifyPassword(user.passwordHash, current))),
+  )
+  if (!user || !matches) {
     throw new AppError(400, 'wrong_password', 'The current password is not right.', [
       { path: 'currentPassword', message: 'The current password is not right.' },
     ])
@@ -101,10 +106,14 @@ export async function requestPasswordReset(ctx: AppContext, email: string, origi
   const user = await findUserByEmail(ctx.db, email)
   if (!user) return
   const token = newToken()
-  await ctx.db.insert(passwordResets).values({
-    tokenHash: hashToken(token),
-    userId: user.id,
-    expiresAt: new Date(Date.now() + resetLifetimeMs),
+  // A new link ends every earlier one: only the newest mail can reset the password.
+  await ctx.db.transaction(async (tx) => {
+    await tx.delete(passwordResets).where(eq(passwordResets.userId, user.id))
+    await tx.insert(passwordResets).values({
+      tokenHash: hashToken(token),
+      userId: user.id,
+      expiresAt: new Date(Date.now() + resetLifetimeMs),
+    })
   })
   await ctx.mailer.send({
     to: user.email,
@@ -155,6 +164,12 @@ export async function confirmPasswordReset(ctx: AppContext, token: string, newPa
     if (spent.length === 0)
       throw new AppError(400, 'invalid_token', 'This reset link was already used.')
     await tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId))
+    // Using a link ends any other link of the person's.
+    await tx
+      .delete(passwordResets)
+      .where(
+        and(eq(passwordResets.userId, reset.userId), ne(passwordResets.tokenHash, reset.tokenHash)),
+      )
   })
   await ctx.sessions.endAll(reset.userId)
 }

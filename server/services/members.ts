@@ -352,12 +352,22 @@ export async function previewInvitation(db: DbOrTx, token: string): Promise<Invi
  * Accepts an invitation: a new account (name and a strong password) or, for a person who has
  * one, their current password. The token is spent in the same transaction as the membership.
  */
-export async function acceptInvitation(ctx: AppContext, input: AcceptInvitationInput) {
+export async function acceptInvitation(
+  ctx: AppContext,
+  input: AcceptInvitationInput,
+  client: string,
+) {
   const { invitation } = await usableInvitation(ctx.db, input.token)
   const existing = await findUserByEmail(ctx.db, invitation.email)
   let passwordHash: string | undefined
   if (existing) {
-    if (!existing.passwordHash || !(await verifyPassword(existing.passwordHash, input.password))) {
+    // The existing account's password is checked under the same limits as signing in.
+    const matches = await ctx.limits.checkPassword(existing.email, client, async () =>
+      Boolean(
+        existing.passwordHash && (await verifyPassword(existing.passwordHash, input.password)),
+      ),
+    )
+    if (!matches) {
       throw new AppError(
         400,
         'wrong_password',

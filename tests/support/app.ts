@@ -1,6 +1,6 @@
 import pino from 'pino'
 import { createApp } from '../../server/app.ts'
-import { SignInThrottle } from '../../server/auth/throttle.ts'
+import type { LimitRules } from '../../server/auth/limits.ts'
 import type { Database } from '../../server/db/client.ts'
 import { parseEnv, type Env } from '../../server/env.ts'
 import { createMailer, type Mailer } from '../../server/mail/mailer.ts'
@@ -20,7 +20,7 @@ export interface TestApp {
 /** The real app over a test database, with the local fake mail server and no built client. */
 export async function testApp(
   database: Database,
-  options: { env?: Partial<Env>; throttle?: SignInThrottle } = {},
+  options: { env?: Partial<Env>; limits?: LimitRules } = {},
 ): Promise<TestApp> {
   const env = { ...testEnv, ...options.env }
   const mailer = await createMailer(env)
@@ -29,7 +29,7 @@ export async function testApp(
     database,
     logger: pino({ level: 'silent' }),
     mailer,
-    throttle: options.throttle,
+    limits: options.limits,
   })
   return {
     app,
