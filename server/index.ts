@@ -1,6 +1,7 @@
 import type { Server } from 'node:http'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 import { createApp } from './app.ts'
+import { schedulePurge } from './auth/purge.ts'
 import { createDatabase } from './db/client.ts'
 import { EnvError, parseEnv, type Env } from './env.ts'
 import { createLogger } from './logger.ts'
@@ -11,6 +12,8 @@ export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url
 export interface Serving {
   server: Server
   url: string
+  /** The local mail viewer, when no mail provider is configured. */
+  mailViewerUrl?: string
   /** Stops taking connections, lets in-flight requests finish, then closes the pool. */
   close(): Promise<void>
 }
@@ -43,9 +46,13 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
     })
   })
   const url = `http://${env.HOST}:${env.PORT}`
+  const stopPurge = schedulePurge(database.db, (err) =>
+    logger.warn({ err: (err as Error).message }, 'purge of expired sessions and links failed'),
+  )
   let closing: Promise<void> | undefined
   const close = () =>
     (closing ??= new Promise<void>((resolve) => {
+      stopPurge()
       // Idle keep-alive sockets would hold close() open; in-flight requests get 10 s to finish.
       const force = setTimeout(() => server.closeAllConnections(), 10_000)
       server.close(() => {
@@ -54,7 +61,7 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
       })
       server.closeIdleConnections()
     }))
-  return { server, url, close }
+  return { server, url, mailViewerUrl: mailer.viewer?.url, close }
 }
 
 /** Runs until SIGINT or SIGTERM, then shuts down gracefully and runs `onStop`. */

@@ -8,21 +8,18 @@ import { sessions, users } from '../db/schema.ts'
 export interface SessionSettings {
   idleMinutes: number
   absoluteHours: number
-  /** Served over HTTPS: the cookie is Secure and __Host- prefixed. */
+  /** The app's public address is https: the cookie is Secure and __Host- prefixed everywhere. */
   secure: boolean
 }
 
+/**
+ * Lucia keeps the session rows; the cookie is written by `sessions.ts`, which stores only the
+ * SHA-256 of the cookie's secret as the session id (as lucia's own migration guide recommends).
+ */
 export function createLucia(db: Db, settings: SessionSettings) {
   const adapter = new DrizzlePostgreSQLAdapter(db, sessions, users)
   return new Lucia(adapter, {
     sessionExpiresIn: new TimeSpan(settings.idleMinutes, 'm'),
-    sessionCookie: {
-      name: settings.secure ? '__Host-twofold_session' : 'twofold_session',
-      // Lucia's cookie carries Max-Age; a browser-session cookie is stricter and the server
-      // enforces the real lifetime anyway.
-      expires: false,
-      attributes: { secure: settings.secure, sameSite: 'lax', path: '/' },
-    },
     getSessionAttributes: (attributes) => ({
       createdAt: attributes.createdAt,
       clubId: attributes.clubId ?? null,

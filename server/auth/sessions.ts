@@ -4,7 +4,13 @@ import type { Request, RequestHandler, Response } from 'express'
 import type { SessionView } from '../../shared/schemas/auth.ts'
 import type { Db } from '../db/client.ts'
 import { sessions } from '../db/schema.ts'
-import { createLucia, type Session, type SessionSettings, type User } from './lucia.ts'
+import {
+  createLucia,
+  generateIdFromEntropySize,
+  type Session,
+  type SessionSettings,
+  type User,
+} from './lucia.ts'
 
 export interface AuthContext {
   user: User
@@ -22,6 +28,38 @@ declare module 'express-serve-static-core' {
 export const sessionHandle = (id: string) =>
   createHash('sha256').update(id).digest('hex').slice(0, 24)
 
+/** The stored session id: the SHA-256 of the secret in the cookie, so a leaked table signs nobody in. */
+export const storedSessionId = (secret: string) => createHash('sha256').update(secret).digest('hex')
+
+const plainCookie = 'twofold_session'
+/** Over https the cookie is __Host- prefixed: Secure, Path=/, no Domain, so no subdomain can set it. */
+const hostCookie = '__Host-twofold_session'
+
+/** Reached over https: directly, through a trusted proxy (TRUST_PROXY), or at an https PUBLIC_URL. */
+const overHttps = (req: Request, settings: SessionSettings) => settings.secure || req.secure
+
+function readCookie(header: string, name: string): string | null {
+  for (const part of header.split(';')) {
+    const eq = part.indexOf('=')
+    if (eq > 0 && part.slice(0, eq).trim() === name) {
+      const value = part.slice(eq + 1).trim()
+      return /^[a-z0-9]{1,64}$/.test(value) ? value : null
+    }
+  }
+  return null
+}
+
+/**
+ * A browser-session cookie: no Max-Age or Expires, so it goes when the browser closes; the
+ * server ends the session itself after the idle and absolute lifetimes.
+ */
+function sessionCookie(name: string, value: string, secure: boolean, clear = false) {
+  const parts = [`${name}=${value}`, 'Path=/', 'HttpOnly', 'SameSite=Lax']
+  if (secure) parts.push('Secure')
+  if (clear) parts.push('Max-Age=0')
+  return parts.join('; ')
+}
+
 /**
  * Sessions: a random id in an HttpOnly SameSite=Lax cookie, stored server side, sliding idle
  * timeout and a hard absolute lifetime counted from sign-in.
@@ -31,39 +69,47 @@ export function createSessions(db: Db, settings: SessionSettings) {
   const idleMs = settings.idleMinutes * 60_000
   const absoluteMs = settings.absoluteHours * 3_600_000
 
+  const cookieName = (req: Request) => (overHttps(req, settings) ? hostCookie : plainCookie)
+
   async function start(
+    req: Request,
     res: Response,
     userId: string,
-    meta: { clubId: string | null; userAgent?: string },
+    meta: { clubId: string | null },
   ) {
-    const session = await lucia.createSession(userId, {
-      createdAt: new Date(),
-      clubId: meta.clubId,
-      userAgent: meta.userAgent?.slice(0, 300) ?? null,
-    })
-    res.append('Set-Cookie', lucia.createSessionCookie(session.id).serialize())
+    const secret = generateIdFromEntropySize(25)
+    const session = await lucia.createSession(
+      userId,
+      {
+        createdAt: new Date(),
+        clubId: meta.clubId,
+        userAgent: req.get('user-agent')?.slice(0, 300) ?? null,
+      },
+      { sessionId: storedSessionId(secret) },
+    )
+    res.append('Set-Cookie', sessionCookie(cookieName(req), secret, overHttps(req, settings)))
     return session
   }
 
-  function clearCookie(res: Response) {
-    res.append('Set-Cookie', lucia.createBlankSessionCookie().serialize())
+  function clearCookie(req: Request, res: Response) {
+    res.append('Set-Cookie', sessionCookie(cookieName(req), '', overHttps(req, settings), true))
   }
 
   /** Reads and checks the cookie; extends the idle timeout; ends sessions past their lifetime. */
   const load: RequestHandler = async (req, res, next) => {
     req.auth = null
-    const id = lucia.readSessionCookie(req.headers.cookie ?? '')
-    if (!id) return next()
-    const { session, user } = await lucia.validateSession(id)
+    const secret = readCookie(req.headers.cookie ?? '', cookieName(req))
+    if (!secret) return next()
+    const { session, user } = await lucia.validateSession(storedSessionId(secret))
     if (!session || !user) {
-      clearCookie(res)
+      clearCookie(req, res)
       return next()
     }
     const now = Date.now()
     const deadline = session.createdAt.getTime() + absoluteMs
     if (now >= deadline) {
       await lucia.invalidateSession(session.id)
-      clearCookie(res)
+      clearCookie(req, res)
       return next()
     }
     // Slide the idle timeout at most once a minute, never past the absolute deadline.
@@ -86,7 +132,7 @@ export function createSessions(db: Db, settings: SessionSettings) {
     clearCookie,
     async end(req: Request, res: Response) {
       if (req.auth) await lucia.invalidateSession(req.auth.session.id)
-      clearCookie(res)
+      clearCookie(req, res)
     },
     endAll: (userId: string) => lucia.invalidateUserSessions(userId),
     async endOthers(userId: string, keepId: string) {

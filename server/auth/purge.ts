@@ -1,0 +1,33 @@
+import { isNotNull, lt, or, sql } from 'drizzle-orm'
+import type { Db } from '../db/client.ts'
+import { passwordResets, rateLimits, sessions } from '../db/schema.ts'
+
+/**
+ * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime
+ * moves the expiry no further, so it is covered), reset links that expired or were used, and
+ * limiter counters whose window closed. Safe to run from every process at once.
+ */
+export async function purgeExpired(db: Db, now = new Date()) {
+  const ended = await db
+    .delete(sessions)
+    .where(lt(sessions.expiresAt, now))
+    .returning({ id: sessions.id })
+  const resets = await db
+    .delete(passwordResets)
+    .where(or(lt(passwordResets.expiresAt, now), isNotNull(passwordResets.usedAt)))
+    .returning({ tokenHash: passwordResets.tokenHash })
+  const counters = await db
+    .delete(rateLimits)
+    .where(lt(rateLimits.expire, sql`${now.getTime()}`))
+    .returning({ key: rateLimits.key })
+  return { sessions: ended.length, resets: resets.length, counters: counters.length }
+}
+
+/** Purges now and then every `intervalMs`; the timer does not keep the process alive. */
+export function schedulePurge(db: Db, onError: (err: unknown) => void, intervalMs = 15 * 60_000) {
+  const run = () => void purgeExpired(db).catch(onError)
+  run()
+  const timer = setInterval(run, intervalMs)
+  timer.unref()
+  return () => clearInterval(timer)
+}
