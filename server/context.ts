@@ -1,9 +1,8 @@
-import type { Request } from 'express'
 import type { Logger } from 'pino'
-import type { SignInThrottle } from './auth/throttle.ts'
+import type { Limits } from './auth/limits.ts'
 import type { Sessions } from './auth/sessions.ts'
 import type { Db } from './db/client.ts'
-import type { Env } from './env.ts'
+import { linkOrigin, type Env } from './env.ts'
 import type { Mailer } from './mail/mailer.ts'
 import type { AuditJobs } from './services/audit-jobs.ts'
 
@@ -13,12 +12,15 @@ export interface AppContext {
   db: Db
   sessions: Sessions
   mailer: Mailer
-  throttle: SignInThrottle
+  limits: Limits
   logger: Logger
   auditJobs: AuditJobs
 }
 
-/** The address links in e-mails point at: PUBLIC_URL, else the origin of the request. */
-export function publicOrigin(env: Env, req: Request) {
-  return env.PUBLIC_URL ? new URL(env.PUBLIC_URL).origin : `${req.protocol}://${req.get('host')}`
+/**
+ * The address links in e-mails point at: PUBLIC_URL, else the address the server listens on.
+ * Never built from a request's Host or X-Forwarded-* headers, which a client can forge.
+ */
+export function publicOrigin(env: Env) {
+  return linkOrigin(env)
 }

@@ -11,12 +11,18 @@ try {
   const env = parseEnv()
   const local = await localDatabase(env.DATABASE_URL)
   await prepareDatabase(local.url)
-  const api = await serve({ ...env, DATABASE_URL: local.url }, { clientDir: '' })
+  // People open Vite's address, so links in mail point there, not at the API's own port.
+  const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${Number(process.env.VITE_PORT ?? 5173)}`
+  const api = await serve(
+    { ...env, DATABASE_URL: local.url, PUBLIC_URL: publicUrl },
+    { clientDir: '' },
+  )
   process.env.TWOFOLD_API_URL = api.url
   const vite = await createServer({ root: projectDir, configFile: `${projectDir}/vite.config.ts` })
   await vite.listen()
   vite.printUrls()
   console.log(`API on ${api.url}`)
+  if (api.mailViewerUrl) console.log(`Local mail viewer on ${api.mailViewerUrl}`)
   printDemoSignIns()
   stopOnSignals(api, async () => {
     await vite.close()

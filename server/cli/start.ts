@@ -31,8 +31,15 @@ try {
   )
   if (build.status !== 0) throw new Error('vite build failed: see the messages above.')
   console.log('4/4 Serving…')
-  const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'production' })
-  console.log(`\nTwofold is running at ${serving.url}  (Ctrl-C stops it)\n`)
+  // The demo: local database and local fake mail, never production mode.
+  const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'development' })
+  console.log(`\nTwofold is running at ${serving.url}  (Ctrl-C stops it)`)
+  if (serving.mailViewerUrl) {
+    console.log(
+      `Mail is not delivered: read it in the local mail viewer at ${serving.mailViewerUrl}`,
+    )
+  }
+  console.log()
   printDemoSignIns()
   stopOnSignals(serving, () => {
     if (local.cluster) {

@@ -1,7 +1,8 @@
 import nodemailer from 'nodemailer'
 import type { Logger } from 'pino'
-import type { Env } from '../env.ts'
+import { EnvError, type Env } from '../env.ts'
 import { startFakeSmtp, type FakeSmtp } from './fake-smtp.ts'
+import { startMailViewer, type MailViewer } from './mail-viewer.ts'
 
 export interface Mail {
   to: string
@@ -13,15 +14,21 @@ export interface Mailer {
   send(mail: Mail): Promise<void>
   /** The local fake server when no provider is configured (development and tests). */
   fake?: FakeSmtp
+  /** The loopback-only page that shows the fake's messages; never in production. */
+  viewer?: MailViewer
   close(): Promise<void>
 }
 
 /** Mail over SMTP: to `SMTP_URL` when set, else to a local fake server started here. */
 export async function createMailer(
-  env: Pick<Env, 'SMTP_URL' | 'MAIL_FROM'>,
+  env: Pick<Env, 'SMTP_URL' | 'MAIL_FROM' | 'NODE_ENV' | 'MAIL_VIEWER_PORT'>,
   logger?: Logger,
 ): Promise<Mailer> {
+  if (!env.SMTP_URL && env.NODE_ENV === 'production') {
+    throw new EnvError('Invalid environment:\n  SMTP_URL: required in production')
+  }
   const fake = env.SMTP_URL ? undefined : await startFakeSmtp()
+  const viewer = fake ? await startMailViewer(fake, env.MAIL_VIEWER_PORT) : undefined
   const transport = env.SMTP_URL
     ? nodemailer.createTransport(env.SMTP_URL)
     : nodemailer.createTransport({
@@ -30,10 +37,10 @@ export async function createMailer(
         secure: false,
         ignoreTLS: true,
       })
-  if (fake)
-    logger?.info({ port: fake.port }, 'local fake mail server: messages appear on the Outbox page')
+  if (viewer) logger?.info({ url: viewer.url }, 'local fake mail: messages appear in the viewer')
   return {
     fake,
+    viewer,
     async send(mail) {
       await transport.sendMail({
         from: env.MAIL_FROM,
@@ -45,6 +52,7 @@ export async function createMailer(
     },
     async close() {
       transport.close()
+      await viewer?.close()
       await fake?.close()
     },
   }

@@ -58,7 +58,7 @@ export function memberRoutes(ctx: AppContext): ClubRoute[] {
         const input = invitationInputSchema.parse(req.body)
         res
           .status(201)
-          .json(await createInvitation(ctx, req.club, input, publicOrigin(ctx.env, req)))
+          .json(await createInvitation(ctx, req.club, input, publicOrigin(ctx.env)))
       },
     },
     {
@@ -67,7 +67,7 @@ export function memberRoutes(ctx: AppContext): ClubRoute[] {
       allow: ['director'],
       handler: async (req, res) => {
         const { id } = invitationParams.parse(req.params)
-        await resendInvitation(ctx, req.club, id, publicOrigin(ctx.env, req))
+        await resendInvitation(ctx, req.club, id, publicOrigin(ctx.env))
         res.status(204).end()
       },
     },

@@ -112,8 +112,6 @@ export const meSchema = z.object({
   user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
   memberships: z.array(membershipViewSchema),
   activeClubId: z.uuid().nullable(),
-  /** True while the local fake mail server stands in for a provider (the Outbox page exists). */
-  fakeMail: z.boolean(),
 })
 export type Me = z.infer<typeof meSchema>
 
@@ -161,6 +159,7 @@ export const invitationPreviewSchema = z.object({
 })
 export type InvitationPreview = z.infer<typeof invitationPreviewSchema>
 
+/** A message caught by the local fake mail server (development and tests only). */
 export const outboxMessageSchema = z.object({
   id: z.string(),
   to: z.array(z.string()),
@@ -169,3 +168,7 @@ export const outboxMessageSchema = z.object({
   receivedAt: z.string(),
 })
 export type OutboxMessage = z.infer<typeof outboxMessageSchema>
+
+/** Without a mail provider: where this computer's local mail viewer is; null with a provider. */
+export const localMailSchema = z.object({ url: z.string().nullable() })
+export type LocalMail = z.infer<typeof localMailSchema>

@@ -2,6 +2,7 @@ import type {
   AcceptInvitationInput,
   ChangePasswordInput,
   InvitationPreview,
+  LocalMail,
   Me,
   SessionView,
   SignInInput,
@@ -9,6 +10,7 @@ import type {
 import { request } from './http'
 
 export const getMe = () => request<Me>('/auth/me')
+export const getLocalMail = () => request<LocalMail>('/auth/local-mail')
 export const signIn = (input: SignInInput) =>
   request<Me>('/auth/sign-in', { method: 'POST', body: input })
 export const signOut = () => request<void>('/auth/sign-out', { method: 'POST' })

@@ -3,7 +3,6 @@ import type {
   InvitationView,
   MembershipUpdate,
   MemberView,
-  OutboxMessage,
 } from '@shared/schemas/auth'
 import { request } from './http'
 
@@ -23,5 +22,3 @@ export const resendInvitation = (clubId: string, id: string) =>
   request<void>(`${club(clubId)}/invitations/${id}/resend`, { method: 'POST' })
 export const withdrawInvitation = (clubId: string, id: string) =>
   request<void>(`${club(clubId)}/invitations/${id}`, { method: 'DELETE' })
-
-export const listOutbox = (clubId: string) => request<OutboxMessage[]>(`${club(clubId)}/outbox`)

@@ -11,8 +11,6 @@ declare module 'vue-router' {
     public?: boolean
     /** Roles that may open the page; absent means every signed-in role. */
     roles?: Role[]
-    /** Needs the local fake mail server (the Outbox). */
-    fakeMail?: boolean
     /** The navigation entry to highlight, when it is not the route's own name. */
     nav?: string
   }
@@ -92,12 +90,6 @@ export const routes: RouteRecordRaw[] = [
     meta: { nav: 'catalogue', title: 'Element', roles: ['director', 'coach', 'clinician'] },
   },
   {
-    path: '/outbox',
-    name: 'outbox',
-    component: () => import('@/views/OutboxView.vue'),
-    meta: { title: 'Outbox', roles: ['director'], fakeMail: true },
-  },
-  {
     path: '/account',
     name: 'account',
     component: () => import('@/views/AccountView.vue'),
@@ -137,8 +129,6 @@ router.beforeEach(async (to) => {
   if (!membership.accessOpen) return { name: 'no-access', query: { reason: 'window' } }
   if (to.meta.roles && !to.meta.roles.includes(membership.role))
     return { name: 'no-access', query: { reason: 'role' } }
-  if (to.meta.fakeMail && !session.me?.fakeMail)
-    return { name: 'not-found', params: { pathMatch: ['outbox'] } }
   return true
 })
 

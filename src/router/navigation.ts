@@ -23,7 +23,6 @@ export function navigationItems(me: Me | null, membership: MembershipView | null
   items.push(...progressNavItems(membership.role), ...auditNavItems(membership.role))
   if (membership.role === 'director') {
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
-    if (me.fakeMail) items.push({ key: 'outbox', label: 'Outbox', to: { name: 'outbox' } })
   }
   return items
 }

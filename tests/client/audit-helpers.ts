@@ -52,7 +52,6 @@ export function signInAs(role: Role) {
       },
     ],
     activeClubId: clubId,
-    fakeMail: false,
   }
   session.ready = true
 }

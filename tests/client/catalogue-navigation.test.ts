@@ -17,7 +17,6 @@ function as(role: Role): [Me, MembershipView] {
     user: { id: 'u1', email: `${role}@demo.example`, name: 'Sam' },
     memberships: [membership],
     activeClubId: membership.clubId,
-    fakeMail: false,
   }
   return [me, membership]
 }

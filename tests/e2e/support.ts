@@ -1,5 +1,6 @@
 import { mkdirSync } from 'node:fs'
-import type { Page } from '@playwright/test'
+import { AxeBuilder } from '@axe-core/playwright'
+import { expect, type Page } from '@playwright/test'
 
 export const screenshotDir = 'tests/e2e/screenshots'
 
@@ -14,4 +15,13 @@ export function recordRequests(page: Page): string[] {
   const urls: string[] = []
   page.on('request', (req) => urls.push(req.url()))
   return urls
+}
+
+/** Runs axe on the page as it is and fails on any critical or serious violation, naming them. */
+export async function expectNoSeriousAxeViolations(page: Page) {
+  const { violations } = await new AxeBuilder({ page }).analyze()
+  const serious = violations
+    .filter((v) => v.impact === 'critical' || v.impact === 'serious')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.length})`)
+  expect(serious).toEqual([])
 }

@@ -124,7 +124,6 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async () => ({ path: '/settings', body: { lostSkillStepDown: 2 } }),
   },
-  'GET /outbox': { allow: ['director'], ok: 200, request: async () => ({ path: '/outbox' }) },
   'GET /members': { allow: ['director'], ok: 200, request: async () => ({ path: '/members' }) },
   'PATCH /members/:userId': {
     allow: ['director'],

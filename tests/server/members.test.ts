@@ -233,21 +233,3 @@ describe('clinician windows', () => {
     expect(me.body.memberships[0].accessOpen).toBe(false)
   })
 })
-
-describe('outbox', () => {
-  it('shows the director the messages sent to the club’s members and invitees only', async () => {
-    const other = await clubWithPeople(database.db, 'outbox')
-    const otherDirector = await signedIn(t, other.people.director.email)
-    await otherDirector
-      .post(`/api/clubs/${other.club.id}/invitations`)
-      .send({ email: 'only-other@test.example', role: 'board' })
-      .expect(201)
-    await t.mailer.fake!.waitFor('only-other@test.example')
-    const mine = (await director.get(`${base()}/outbox`).expect(200)).body as { to: string[] }[]
-    expect(mine.length).toBeGreaterThan(0)
-    expect(mine.some((m) => m.to.includes('only-other@test.example'))).toBe(false)
-    const theirs = (await otherDirector.get(`/api/clubs/${other.club.id}/outbox`).expect(200))
-      .body as { to: string[] }[]
-    expect(theirs.some((m) => m.to.includes('only-other@test.example'))).toBe(true)
-  })
-})
