@@ -56,9 +56,7 @@ export function memberRoutes(ctx: AppContext): ClubRoute[] {
       allow: ['director'],
       handler: async (req, res) => {
         const input = invitationInputSchema.parse(req.body)
-        res
-          .status(201)
-          .json(await createInvitation(ctx, req.club, input, publicOrigin(ctx.env)))
+        res.status(201).json(await createInvitation(ctx, req.club, input, publicOrigin(ctx.env)))
       },
     },
     {
