@@ -1,4 +1,5 @@
 import { and, eq } from 'drizzle-orm'
+import type { Response } from 'express'
 import { z } from 'zod'
 import { disciplines } from '../../shared/domain/club.ts'
 import {
@@ -8,6 +9,7 @@ import {
 } from '../../shared/schemas/audits.ts'
 import { publicOrigin, type AppContext } from '../context.ts'
 import { clubs, memberships, users } from '../db/schema.ts'
+import { bounded, boundedQueue, type BoundedLimits, type BoundedQueue } from '../http/bounded.ts'
 import { AppError } from '../http/errors.ts'
 import { sendCsv } from '../http/responses.ts'
 import { gapsCsv, headlineCsv, reportPdf } from '../services/audit-exports.ts'
@@ -23,7 +25,7 @@ import {
   saveAgeThresholds,
   saveProfile,
 } from '../services/audits.ts'
-import type { ClubRoute } from './club-routes.ts'
+import type { ClubRequest, ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such audit.') })
 const readers = ['director', 'coach', 'clinician'] as const
@@ -34,8 +36,22 @@ const profileId = (raw: unknown) => {
   return id.data
 }
 
+/**
+ * PDF reports of one app: a report is read whole (megabytes for a large club) and drawn on the
+ * event loop, which it holds for about 0.2 s (the demo club's). One at a time: a second at once
+ * adds no throughput on one loop and makes every other request wait behind two drawings.
+ */
+export const pdfLimits: BoundedLimits = { running: 1, waiting: 100, retryAfterSeconds: 5 }
+
+const pdfQueues = new WeakMap<AppContext, BoundedQueue>()
+
+/** The queue the PDF reports of the app built over `ctx` go through (its peak, for tests). */
+export const pdfQueueOf = (ctx: AppContext) => pdfQueues.get(ctx)
+
 /** Audits, their exports and settings, and the board's summary. */
-export function auditRoutes(ctx: AppContext): ClubRoute[] {
+export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubRoute[] {
+  const pdfJobs = boundedQueue(limits.pdf)
+  pdfQueues.set(ctx, pdfJobs)
   const clubName = async (clubId: string) =>
     (await ctx.db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId)))[0]!.name
   return [
@@ -50,7 +66,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       path: '/audits',
       allow: ['director'],
       handler: async (req, res) =>
-        res.status(202).json(ctx.auditJobs.start(req.club, auditRunSchema.parse(req.body))),
+        res.status(202).json(await ctx.auditJobs.submit(req.club, auditRunSchema.parse(req.body))),
     },
     {
       method: 'get',
@@ -125,7 +141,8 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       method: 'get',
       path: '/audits/:id/report.pdf',
       allow: readers,
-      handler: async (req, res) => {
+      // Loading and drawing both take their turn: the queue, not the pool, holds the rest.
+      handler: bounded(pdfJobs, async (req: ClubRequest, res: Response) => {
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
         const pdf = await reportPdf(report, await clubName(req.club.clubId))
         res.setHeader('Content-Type', 'application/pdf')
@@ -134,7 +151,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
           `attachment; filename="audit-${report.audit.asOf}.pdf"`,
         )
         res.send(pdf)
-      },
+      }),
     },
     {
       method: 'get',

@@ -4,7 +4,7 @@ import type { AuditJob, AuditRun } from '../../shared/schemas/audits.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { notFound } from '../http/errors.ts'
-import { runAndStore, runDate } from './audits.ts'
+import { checkRun, runAndStore, runDate } from './audits.ts'
 
 interface Job extends AuditJob {
   clubId: string
@@ -23,6 +23,16 @@ export class AuditJobs {
     private readonly logger: Logger,
   ) {}
 
+  /**
+   * Checks the run (its date, its squad) before answering, then starts it: a run that would fail
+   * on its inputs is refused at once and starts no job.
+   */
+  async submit(access: ClubAccess, run: AuditRun): Promise<AuditJob> {
+    await checkRun(this.db, access, run)
+    return this.start(access, run)
+  }
+
+  /** Starts a run at once; the background job checks its squad again before reading. */
   start(access: ClubAccess, run: AuditRun): AuditJob {
     runDate(run) // refuse a bad date now, not in the background
     this.prune()

@@ -33,7 +33,7 @@ import {
 } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { clubAgeThresholds, clubProfiles, gatherInputs } from './audit-inputs.ts'
-import { readableSquadIds } from './scope.ts'
+import { assertCanReadSquad, readableSquadIds } from './scope.ts'
 
 /** Gives a new club the seeded requirement profiles and age thresholds. */
 export async function installAuditDefaults(db: DbOrTx, clubId: string) {
@@ -138,6 +138,17 @@ export function runDate(run: AuditRun): string {
   return date
 }
 
+/**
+ * Checks a run before any work starts: a date up to today and, for a squad's audit, a squad of
+ * this club the person may read (another club's or an unknown id answers 404). Returns the as-of
+ * date.
+ */
+export async function checkRun(db: DbOrTx, access: ClubAccess, run: AuditRun): Promise<string> {
+  const asOf = runDate(run)
+  if (run.squadId) await assertCanReadSquad(db, access, run.squadId)
+  return asOf
+}
+
 export type ProgressListener = (progress: { phase: string; done: number; total: number }) => void
 
 /** Runs and stores one audit; the stored row is never changed afterwards. */
@@ -147,14 +158,7 @@ export async function runAndStore(
   run: AuditRun,
   onProgress: ProgressListener = () => {},
 ) {
-  const asOf = runDate(run)
-  if (run.squadId) {
-    const [squad] = await db
-      .select()
-      .from(squads)
-      .where(and(eq(squads.clubId, access.clubId), eq(squads.id, run.squadId)))
-    if (!squad) throw notFound('No such squad in this club.')
-  }
+  const asOf = await checkRun(db, access, run)
   onProgress({ phase: 'reading', done: 0, total: 1 })
   const inputs = await gatherInputs(db, access.clubId, run.squadId, asOf)
   onProgress({ phase: 'reading', done: 1, total: 1 })
