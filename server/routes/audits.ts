@@ -112,7 +112,7 @@ export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubR
               `The technical director has published the forward/backward audit of ${name} as of ${row.asOf}.`,
               'The summary chart and the headline figures are on the board page:',
               '',
-              `${publicOrigin(ctx.env, req)}/board`,
+              `${publicOrigin(ctx.env)}/board`,
             ].join('\n'),
           })
         }
