@@ -5,6 +5,7 @@ import { schedulePurge } from './auth/purge.ts'
 import { createDatabase } from './db/client.ts'
 import { EnvError, parseEnv, type Env } from './env.ts'
 import { createLogger } from './logger.ts'
+import { closeReportPdfPool } from './services/report-pdf-pool.ts'
 import { createMailer } from './mail/mailer.ts'
 
 export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -57,7 +58,9 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
       const force = setTimeout(() => server.closeAllConnections(), 10_000)
       server.close(() => {
         clearTimeout(force)
-        Promise.allSettled([database.close(), mailer.close()]).then(() => resolve())
+        Promise.allSettled([database.close(), mailer.close(), closeReportPdfPool()]).then(() =>
+          resolve(),
+        )
       })
       server.closeIdleConnections()
     }))
