@@ -5,6 +5,7 @@ import compression from 'compression'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
 import type { Logger } from 'pino'
+import { requestForLog } from './logger.ts'
 import { requireClubAccess } from './auth/club-access.ts'
 import { createSessions } from './auth/sessions.ts'
 import {
@@ -84,12 +85,19 @@ export function createApp({ env, database, logger, mailer, limits, clientDir }: 
         },
       },
       // Plain HTTP on loopback must not be told to switch to HTTPS.
-      strictTransportSecurity: env.TRUST_PROXY,
+      strictTransportSecurity:
+        Boolean(env.TRUST_PROXY) || Boolean(env.PUBLIC_URL?.startsWith('https:')),
     }),
   )
   // A large club's audit report runs to megabytes of JSON, read on tablets in the gym.
   app.use(compression())
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }))
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      serializers: { req: requestForLog },
+    }),
+  )
   app.use(express.json({ limit: '1mb' }))
 
   const api = express.Router()

@@ -1,9 +1,5 @@
 import { z } from 'zod'
 
-const booleanFlag = z
-  .enum(['true', 'false', '1', '0', 'yes', 'no'])
-  .transform((value) => value === 'true' || value === '1' || value === 'yes')
-
 /**
  * Every setting the server reads from the environment. Parsed once at start so that a bad value
  * stops the process with a message naming the variable, instead of failing later at first use.
@@ -33,8 +29,22 @@ export const envSchema = z.object({
     .min(1)
     .max(24 * 30)
     .default(12),
-  /** Behind a TLS-terminating proxy: trust X-Forwarded-* from it. */
-  TRUST_PROXY: booleanFlag.default(false),
+  /**
+   * Behind a TLS-terminating proxy: which hops' X-Forwarded-* to believe. `true` is one proxy in
+   * front (the client address is the last one that proxy added, never one the client wrote); a
+   * number is that many proxies; anything else is Express's list of proxy addresses or subnets
+   * (e.g. `loopback, 10.0.0.0/8`). Never "every hop": a client would choose its own address.
+   */
+  TRUST_PROXY: z
+    .string()
+    .default('false')
+    .transform((value): false | number | string => {
+      const v = value.trim().toLowerCase()
+      if (['false', 'no', '0', ''].includes(v)) return false
+      if (['true', 'yes'].includes(v)) return 1
+      if (/^\d+$/.test(v)) return Number(v)
+      return value.trim()
+    }),
 })
 
 /**

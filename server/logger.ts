@@ -101,6 +101,7 @@ export function loggerOptions(env: Pick<Env, 'LOG_LEVEL' | 'NODE_ENV'>): LoggerO
       paths: [
         'req.headers.cookie',
         'req.headers.authorization',
+        'req.headers["proxy-authorization"]',
         'res.headers["set-cookie"]',
         '*.password',
       ],
@@ -119,4 +120,20 @@ export function loggerOptions(env: Pick<Env, 'LOG_LEVEL' | 'NODE_ENV'>): LoggerO
 /** The server's logger: JSON lines on stdout, without credentials. */
 export function createLogger(env: Pick<Env, 'LOG_LEVEL' | 'NODE_ENV'>): Logger {
   return pino(loggerOptions(env))
+}
+
+interface LoggedRequest {
+  url?: string
+  query?: unknown
+  params?: unknown
+  [key: string]: unknown
+}
+
+/**
+ * What a request line says of the request: pino-http's fields without the query string, whose
+ * values (a search, a token pasted into a link) are the person's, not the log's.
+ */
+export function requestForLog(req: LoggedRequest): LoggedRequest {
+  const { query: _query, params: _params, ...rest } = req
+  return { ...rest, url: req.url?.split('?', 1)[0] }
 }

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto'
 import type pg from 'pg'
 import { RateLimiterPostgres, type RateLimiterRes } from 'rate-limiter-flexible'
 import { AppError } from '../http/errors.ts'
+import { newToken } from './tokens.ts'
 
 /** At most `points` within `seconds`, counted from the first one; then wait for the window. */
 export interface LimitRule {
@@ -67,21 +68,43 @@ function limiter(pool: pg.Pool, prefix: string, rule: LimitRule) {
   })
 }
 
-/** Seconds until `key` may try again under `rule`, or 0. */
-async function waitFor(limit: RateLimiterPostgres, rule: LimitRule, key: string) {
-  const res: RateLimiterRes | null = await limit.get(key)
-  if (!res || res.consumedPoints < rule.points) return 0
-  return Math.max(1, Math.ceil(res.msBeforeNext / 1000))
-}
-
-/** Counts a use; a refusal from the store (already at the limit) is not an error here. */
-async function count(limit: RateLimiterPostgres, key: string) {
+/**
+ * Counts one use now, atomically in PostgreSQL, and answers the seconds to wait when this use
+ * went over the limit, else 0. Counting before the work (not after it) means a burst of
+ * concurrent attempts cannot all slip past a count that has not been written yet.
+ */
+async function take(limit: RateLimiterPostgres, key: string) {
   try {
     await limit.consume(key)
-  } catch (err) {
-    if (err instanceof Error) throw err
+    return 0
+  } catch (res) {
+    if (res instanceof Error) throw res
+    return Math.max(1, Math.ceil((res as RateLimiterRes).msBeforeNext / 1000))
   }
 }
+
+/**
+ * The client a limit counts: an IPv4 address as it is (also when written IPv4-mapped), an IPv6
+ * address by its /64 network, which one subscriber usually holds whole.
+ */
+export function clientKey(ip: string): string {
+  const mapped = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/i.exec(ip)
+  if (mapped) return mapped[1]!
+  if (!ip.includes(':')) return ip
+  const [head = '', tail = ''] = ip.toLowerCase().split('%', 1)[0]!.split('::')
+  const left = head ? head.split(':') : []
+  const right = ip.includes('::') && tail ? tail.split(':') : []
+  const groups = ip.includes('::')
+    ? [...left, ...Array<string>(Math.max(0, 8 - left.length - right.length)).fill('0'), ...right]
+    : left
+  return `${groups
+    .slice(0, 4)
+    .map((g) => g.replace(/^0+(?=.)/, ''))
+    .join(':')}::/64`
+}
+
+/** How long a device that signed in to an account stays known to it. */
+const knownDeviceSeconds = 180 * 24 * 3600
 
 /**
  * Every place that checks a password goes through `checkPassword`; password-reset requests go
@@ -91,50 +114,69 @@ export function createLimits(pool: pg.Pool, rules: LimitRules) {
   const pair = limiter(pool, 'pw-pair', rules.password.pair)
   const client = limiter(pool, 'pw-client', rules.password.client)
   const account = limiter(pool, 'pw-account', rules.password.account)
+  const known = limiter(pool, 'pw-device', { points: 1, seconds: knownDeviceSeconds })
   const resetClient = limiter(pool, 'reset-client', rules.reset.client)
   const resetAddress = limiter(pool, 'reset-address', rules.reset.address)
 
   const keys = (email: string, ip: string) => ({
-    pair: `${digest(email)}:${digest(ip)}`,
-    client: digest(ip),
+    pair: `${digest(email)}:${digest(clientKey(ip))}`,
+    client: digest(clientKey(ip)),
     account: digest(email),
   })
+  const deviceKey = (email: string, device: string) => `${digest(email)}:${digest(device)}`
 
   return {
     /**
      * Runs `verify` (a password check for the account `email`, from the client `ip`) unless a
-     * limit refuses first with 429; counts a failure (null or false), and clears the pair's
-     * count on success. Answers what `verify` found, or null.
+     * limit refuses first with 429. Every attempt counts before the check; a success gives its
+     * count back and clears the pair's. A device that signed in to this account before (its
+     * `device` secret, from `rememberDevice`) is not held back by the account's own count, so
+     * guessing from elsewhere cannot lock the owner out. Answers what `verify` found, or null.
      */
-    async checkPassword<T>(email: string, ip: string, verify: () => Promise<T | null | false>) {
+    async checkPassword<T>(
+      email: string,
+      ip: string,
+      verify: () => Promise<T | null | false>,
+      device?: string | null,
+    ) {
       const k = keys(email, ip)
+      const trusted = device ? (await known.get(deviceKey(email, device))) !== null : false
       const waits = await Promise.all([
-        waitFor(pair, rules.password.pair, k.pair),
-        waitFor(client, rules.password.client, k.client),
-        waitFor(account, rules.password.account, k.account),
+        take(pair, k.pair),
+        take(client, k.client),
+        trusted ? 0 : take(account, k.account),
       ])
       const wait = Math.max(...waits)
       if (wait > 0) {
         throw tooMany(wait, `Too many failed attempts. Try again in ${wait} seconds.`)
       }
       const result = await verify()
-      if (result) await pair.delete(k.pair)
-      else
-        await Promise.all([count(pair, k.pair), count(client, k.client), count(account, k.account)])
+      if (result) {
+        await Promise.all([
+          pair.delete(k.pair),
+          client.reward(k.client),
+          trusted ? null : account.reward(k.account),
+        ])
+      }
       return result || null
+    },
+
+    /** Remembers a device that signed in to the account; answers the secret for its cookie. */
+    async rememberDevice(email: string, device: string = newToken()) {
+      await known.set(deviceKey(email, device), 1, knownDeviceSeconds)
+      return device
     },
 
     /** Refuses with 429 once this client or this address asked for too many reset links. */
     async assertResetAllowed(email: string, ip: string) {
       const waits = await Promise.all([
-        waitFor(resetClient, rules.reset.client, digest(ip)),
-        waitFor(resetAddress, rules.reset.address, digest(email)),
+        take(resetClient, digest(clientKey(ip))),
+        take(resetAddress, digest(email)),
       ])
       const wait = Math.max(...waits)
       if (wait > 0) {
         throw tooMany(wait, `Too many reset requests. Try again in ${wait} seconds.`)
       }
-      await Promise.all([count(resetClient, digest(ip)), count(resetAddress, digest(email))])
     },
   }
 }

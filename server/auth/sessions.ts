@@ -32,18 +32,22 @@ export const sessionHandle = (id: string) =>
 export const storedSessionId = (secret: string) => createHash('sha256').update(secret).digest('hex')
 
 const plainCookie = 'twofold_session'
+/** A device that signed in before: the password limits do not let others lock it out. */
+const plainDeviceCookie = 'twofold_device'
+const hostDeviceCookie = '__Host-twofold_device'
+const deviceSeconds = 180 * 24 * 3600
 /** Over https the cookie is __Host- prefixed: Secure, Path=/, no Domain, so no subdomain can set it. */
 const hostCookie = '__Host-twofold_session'
 
 /** Reached over https: directly, through a trusted proxy (TRUST_PROXY), or at an https PUBLIC_URL. */
 const overHttps = (req: Request, settings: SessionSettings) => settings.secure || req.secure
 
-function readCookie(header: string, name: string): string | null {
+function readCookie(header: string, name: string, pattern = /^[a-z0-9]{1,64}$/): string | null {
   for (const part of header.split(';')) {
     const eq = part.indexOf('=')
     if (eq > 0 && part.slice(0, eq).trim() === name) {
       const value = part.slice(eq + 1).trim()
-      return /^[a-z0-9]{1,64}$/.test(value) ? value : null
+      return pattern.test(value) ? value : null
     }
   }
   return null
@@ -125,11 +129,29 @@ export function createSessions(db: Db, settings: SessionSettings) {
     next()
   }
 
+  const deviceCookieName = (req: Request) =>
+    overHttps(req, settings) ? hostDeviceCookie : plainDeviceCookie
+
   return {
     lucia,
     load,
     start,
     clearCookie,
+    /** The secret of the device cookie, if the request carries one. */
+    readDevice: (req: Request) =>
+      readCookie(req.headers.cookie ?? '', deviceCookieName(req), /^[A-Za-z0-9_-]{43}$/),
+    /** Sets the device cookie: kept for 180 days, sent to this site only, unreadable by scripts. */
+    setDevice(req: Request, res: Response, secret: string) {
+      const parts = [
+        `${deviceCookieName(req)}=${secret}`,
+        'Path=/',
+        `Max-Age=${deviceSeconds}`,
+        'HttpOnly',
+        'SameSite=Lax',
+      ]
+      if (overHttps(req, settings)) parts.push('Secure')
+      res.append('Set-Cookie', parts.join('; '))
+    },
     async end(req: Request, res: Response) {
       if (req.auth) await lucia.invalidateSession(req.auth.session.id)
       clearCookie(req, res)

@@ -81,6 +81,10 @@ export function bounded<Req, Res extends Response>(
 ) {
   return (req: Req, res: Res): Promise<unknown> => {
     if (queue.full) res.setHeader('Retry-After', String(queue.limits.retryAfterSeconds))
-    return queue.run(async () => handler(req, res))
+    return queue.run(async () => {
+      // A request given up while it waited is not worth its turn.
+      if (res.closed || res.destroyed) return
+      return handler(req, res)
+    })
   }
 }

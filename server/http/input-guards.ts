@@ -22,32 +22,62 @@ export const refuseNulCharacters: RequestHandler = (req, _res, next) => {
   next(new AppError(400, 'invalid_input', 'Some fields are not valid.', issues))
 }
 
+/** No form of Twofold nests deeper; a deeper body is refused before it costs anything. */
+const maxDepth = 32
+
+interface Pending {
+  value: unknown
+  key: string | number | null
+  parent: Pending | null
+  depth: number
+}
+
+/** The path of an entry, built only when an issue is reported: each entry keeps its parent. */
+function pathOf(entry: Pending, rootPath: (string | number)[]) {
+  const keys: (string | number)[] = []
+  for (let e: Pending | null = entry; e && e.key !== null; e = e.parent) keys.push(e.key)
+  return [...rootPath, ...keys.reverse()].map(String).join('.')
+}
+
 /**
- * Walks a parsed JSON value (without recursion, so a deeply nested body cannot overflow the
- * stack) and adds an issue for each string, or key, holding NUL.
+ * Walks a parsed JSON value (without recursion, and in time linear in its size) and adds an
+ * issue for each string, or key, holding NUL, and one for a value nested too deep.
  */
 function collectNul(root: unknown, rootPath: (string | number)[], issues: ApiIssue[]) {
-  const pending: { value: unknown; path: (string | number)[] }[] = [{ value: root, path: rootPath }]
+  const pending: Pending[] = [{ value: root, key: null, parent: null, depth: 0 }]
   while (pending.length > 0 && issues.length < maxIssues) {
-    const { value, path } = pending.pop()!
+    const entry = pending.pop()!
+    const { value, depth } = entry
     if (typeof value === 'string') {
       if (hasNulCharacter(value))
-        issues.push({ path: issuePath(path), message: nulCharacterMessage })
-    } else if (Array.isArray(value)) {
+        issues.push({ path: pathOf(entry, rootPath), message: nulCharacterMessage })
+      continue
+    }
+    if (value === null || typeof value !== 'object') continue
+    if (depth >= maxDepth) {
+      issues.push({ path: pathOf(entry, rootPath), message: 'This is nested too deeply.' })
+      return
+    }
+    if (Array.isArray(value)) {
       // The rows of a CSV import are counted from 1, as the file's rows and the import's own
       // per-row errors are; every other list from 0, as the schemas' issue paths are.
-      const first = path.length === 1 && path[0] === 'rows' ? 1 : 0
+      const importRows =
+        rootPath.length === 0 && entry.key === 'rows' && entry.parent?.parent === null
+      const first = importRows ? 1 : 0
       for (let i = value.length - 1; i >= 0; i--)
-        pending.push({ value: value[i], path: [...path, i + first] })
-    } else if (value !== null && typeof value === 'object') {
+        pending.push({ value: value[i], key: i + first, parent: entry, depth: depth + 1 })
+    } else {
       for (const [key, field] of Object.entries(value).reverse()) {
         if (hasNulCharacter(key)) {
-          const shown = [...path, key.replaceAll('\u0000', '\uFFFD')]
-          issues.push({ path: issuePath(shown), message: nulCharacterMessage })
-        } else pending.push({ value: field, path: [...path, key] })
+          const shown = {
+            value: null,
+            key: key.replaceAll('\u0000', '\uFFFD'),
+            parent: entry,
+            depth,
+          }
+          issues.push({ path: pathOf(shown, rootPath), message: nulCharacterMessage })
+        } else pending.push({ value: field, key, parent: entry, depth: depth + 1 })
       }
     }
   }
 }
-
-const issuePath = (path: (string | number)[]) => path.map(String).join('.')

@@ -14,9 +14,10 @@ export function requireSameOrigin(publicUrl?: string): RequestHandler {
     if (safeMethods.has(req.method)) return next()
     const origin = req.get('origin')
     const fetchSite = req.get('sec-fetch-site')
-    const own = `${req.protocol}://${req.get('host')}`
+    // With PUBLIC_URL the app has one address; without it (the demo), the one it was reached at.
+    const own = configured ?? `${req.protocol}://${req.get('host')}`
     if (origin !== undefined) {
-      if (origin === own || origin === configured) return next()
+      if (origin === own) return next()
       return next(
         new AppError(403, 'cross_origin', 'This request did not come from Twofold itself.'),
       )

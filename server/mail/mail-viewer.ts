@@ -72,7 +72,8 @@ export async function startMailViewer(fake: FakeSmtp, port = 0): Promise<MailVie
   const server: Server = createServer((req: IncomingMessage, res: ServerResponse) => {
     const host = (req.headers.host ?? '').replace(/:\d+$/, '')
     const secure = {
-      'Content-Security-Policy': "default-src 'none'; style-src 'unsafe-inline'",
+      'Content-Security-Policy':
+        "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'",
       'Cache-Control': 'no-store',
       'X-Content-Type-Options': 'nosniff',
       'Referrer-Policy': 'no-referrer',

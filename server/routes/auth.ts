@@ -32,8 +32,12 @@ export function authRouter(ctx: AppContext) {
 
   router.post('/sign-in', async (req, res) => {
     const input = signInSchema.parse(req.body)
-    const user = await ctx.limits.checkPassword(input.email, clientOf(req), () =>
-      checkCredentials(ctx.db, input.email, input.password),
+    const device = ctx.sessions.readDevice(req)
+    const user = await ctx.limits.checkPassword(
+      input.email,
+      clientOf(req),
+      () => checkCredentials(ctx.db, input.email, input.password),
+      device,
     )
     if (!user) {
       req.log.warn({ event: 'sign-in-failed' }, 'sign-in failed')
@@ -48,6 +52,11 @@ export function authRouter(ctx: AppContext) {
     const memberships = await membershipViews(ctx.db, user.id)
     const clubId = memberships.find((m) => m.accessOpen)?.clubId ?? memberships[0]?.clubId ?? null
     const session = await ctx.sessions.start(req, res, user.id, { clubId })
+    ctx.sessions.setDevice(
+      req,
+      res,
+      await ctx.limits.rememberDevice(user.email, device ?? undefined),
+    )
     req.log.info({ event: 'sign-in', userId: user.id }, 'signed in')
     res.json(await describeMe(ctx, user, session.clubId))
   })

@@ -108,6 +108,8 @@ export async function requestPasswordReset(ctx: AppContext, email: string, origi
   const token = newToken()
   // A new link ends every earlier one: only the newest mail can reset the password.
   await ctx.db.transaction(async (tx) => {
+    // Two requests at once take turns on the person's row: one link survives, not two.
+    await tx.select({ id: users.id }).from(users).where(eq(users.id, user.id)).for('update')
     await tx.delete(passwordResets).where(eq(passwordResets.userId, user.id))
     await tx.insert(passwordResets).values({
       tokenHash: hashToken(token),

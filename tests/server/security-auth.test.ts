@@ -3,6 +3,7 @@ import { request as httpRequest } from 'node:http'
 import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { clientKey } from '../../server/auth/limits.ts'
 import { purgeExpired } from '../../server/auth/purge.ts'
 import type { Database } from '../../server/db/client.ts'
 import { passwordResets, rateLimits, sessions } from '../../server/db/schema.ts'
@@ -181,7 +182,7 @@ describe('limits per client, per account and per pair, held in PostgreSQL', () =
     request(app).post('/api/auth/sign-in').set('X-Forwarded-For', ip).send({ email, password })
 
   it('refuses one client spraying many accounts, and the count holds across processes', async () => {
-    const proxied = { env: { TRUST_PROXY: true } }
+    const proxied = { env: { TRUST_PROXY: 1 } }
     const first = await testApp(database, proxied)
     const second = await testApp(database, proxied)
     try {
@@ -202,7 +203,7 @@ describe('limits per client, per account and per pair, held in PostgreSQL', () =
   })
 
   it('does not hand an attacker a lock-out of the account’s owner on another client', async () => {
-    const own = await testApp(database, { env: { TRUST_PROXY: true } })
+    const own = await testApp(database, { env: { TRUST_PROXY: 1 } })
     try {
       const victim = (await clubWithPeople(database.db, 'sec-victim')).people.director.email
       for (let i = 0; i < 5; i++) await from(own.app, '198.51.100.1', victim, `g${i}`).expect(401)
@@ -218,7 +219,7 @@ describe('limits per client, per account and per pair, held in PostgreSQL', () =
   })
 
   it('slows an account guessed from many clients for a window', async () => {
-    const own = await testApp(database, { env: { TRUST_PROXY: true } })
+    const own = await testApp(database, { env: { TRUST_PROXY: 1 } })
     try {
       const target = (await clubWithPeople(database.db, 'sec-many')).people.coach.email
       for (let i = 0; i < 20; i++) {
@@ -233,6 +234,69 @@ describe('limits per client, per account and per pair, held in PostgreSQL', () =
     } finally {
       await own.close()
     }
+  })
+
+  it('counts a burst of concurrent guesses before checking any of them', async () => {
+    const target = (await clubWithPeople(database.db, 'sec-burst')).people.coach.email
+    const answers = await Promise.all(
+      Array.from({ length: 12 }, (_, i) =>
+        request(t.app)
+          .post('/api/auth/sign-in')
+          .send({ email: target, password: `burst-${i}` }),
+      ),
+    )
+    const statuses = answers.map((r) => r.status)
+    expect(statuses.filter((s) => s === 401)).toHaveLength(5)
+    expect(statuses.filter((s) => s === 429)).toHaveLength(7)
+  })
+
+  it('lets the owner in on a device that signed in before, while others are held back', async () => {
+    const own = await testApp(database, { env: { TRUST_PROXY: 1 } })
+    try {
+      const owner = (await clubWithPeople(database.db, 'sec-device')).people.board.email
+      const first = await from(own.app, '192.0.2.10', owner, testPassword).expect(200)
+      const device = String(first.headers['set-cookie'])
+        .split(/,(?=\s*\w+=)/)
+        .map((c) => c.trim().split(';')[0]!)
+        .find((c) => c.startsWith('twofold_device='))
+      expect(device).toMatch(/^twofold_device=[A-Za-z0-9_-]{43}$/)
+      // Guessing from twenty other addresses exhausts the account's own count…
+      for (let i = 0; i < 20; i++) await from(own.app, `198.51.100.${120 + i}`, owner, `g${i}`)
+      await from(own.app, '192.0.2.77', owner, testPassword).expect(429)
+      // …but the owner's known device still signs in, even from a new address.
+      await from(own.app, '192.0.2.78', owner, testPassword).set('Cookie', device!).expect(200)
+    } finally {
+      await own.close()
+    }
+  })
+
+  it('believes one proxy hop only: a client cannot choose its own address', async () => {
+    const own = await testApp(database, { env: { TRUST_PROXY: 1 } })
+    try {
+      const statuses: number[] = []
+      for (let i = 0; i < 32; i++) {
+        const res = await request(own.app)
+          .post('/api/auth/sign-in')
+          .set('X-Forwarded-For', `10.9.${i}.1, 203.0.113.50`)
+          .send({ email: `forged-${i}@test.example`, password: 'x' })
+        statuses.push(res.status)
+      }
+      expect(statuses.slice(30)).toEqual([429, 429])
+    } finally {
+      await own.close()
+    }
+  })
+
+  it.each([
+    // RFC 4291 (IPv6 addressing): an interface identifier is the last 64 bits; RFC 5952 forms.
+    ['::ffff:192.0.2.1', '192.0.2.1'],
+    ['192.0.2.1', '192.0.2.1'],
+    ['2001:db8:85a3::8a2e:370:7334', '2001:db8:85a3:0::/64'],
+    ['2001:db8:85a3:0:ffff:1:2:3', '2001:db8:85a3:0::/64'],
+    ['2001:0db8:0000:0001::1', '2001:db8:0:1::/64'],
+    ['::1', '0:0:0:0::/64'],
+  ])('counts %s as the client %s', (ip, key) => {
+    expect(clientKey(ip)).toBe(key)
   })
 
   it('limits reset mail asked for one address', async () => {
@@ -309,11 +373,14 @@ describe('the session cookie', () => {
       .post('/api/auth/sign-in')
       .send({ email: fx.people.coach.email, password: testPassword })
       .expect(200)
-    expect(setCookie(res)).not.toMatch(/Max-Age|Expires/i)
+    const cookies = res.headers['set-cookie'] as unknown as string[]
+    const session = cookies.find((c) => c.startsWith('twofold_session='))
+    expect(session).toBeDefined()
+    expect(session).not.toMatch(/Max-Age|Expires/i)
   })
 
   it('is Secure and __Host- prefixed when reached over https through a trusted proxy', async () => {
-    const own = await testApp(database, { env: { TRUST_PROXY: true } })
+    const own = await testApp(database, { env: { TRUST_PROXY: 1 } })
     try {
       const res = await request(own.app)
         .post('/api/auth/sign-in')

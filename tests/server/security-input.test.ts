@@ -257,6 +257,49 @@ describe('the log', () => {
   })
 })
 
+describe('the request log', () => {
+  it('writes the path of a request but not its query string, and no proxy credentials', async () => {
+    const database = await freshDatabase()
+    const { logger, output } = memoryLogger()
+    const env = { ...testEnv, LOG_LEVEL: 'info' as const }
+    const mailer = await createMailer(env)
+    try {
+      const app = createApp({ env, database, logger, mailer })
+      await request(app)
+        .get('/api/auth/me?token=QuerySecret123&next=%2Fsquads')
+        .set('Proxy-Authorization', 'Basic cHJveHk6c2VjcmV0')
+        .expect(401)
+      const text = output()
+      expect(text).toContain('/api/auth/me')
+      expect(text).not.toContain('QuerySecret123')
+      expect(text).not.toContain('cHJveHk6c2VjcmV0')
+    } finally {
+      await mailer.close()
+      await database.close()
+    }
+  })
+})
+
+describe('a deeply nested body', () => {
+  it('is refused at once, naming where it went too deep', async () => {
+    const database = await freshDatabase()
+    const t = await testApp(database)
+    try {
+      const depth = 20_000
+      const body = '['.repeat(depth) + ']'.repeat(depth)
+      const res = await request(t.app)
+        .post('/api/auth/sign-in')
+        .set('Content-Type', 'application/json')
+        .send(body)
+      expect(res.status).toBe(400)
+      expect(issuesOf(res)[0]?.message).toMatch(/nested too deeply/)
+    } finally {
+      await t.close()
+      await database.close()
+    }
+  })
+})
+
 describe('while PostgreSQL is unreachable', () => {
   // A cluster of this test's own, so that stopping it cannot disturb the other test files.
   let cluster: Awaited<ReturnType<typeof throwawayCluster>>
