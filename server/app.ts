@@ -16,17 +16,17 @@ import {
 } from './auth/limits.ts'
 import type { AppContext } from './context.ts'
 import type { Database } from './db/client.ts'
-import type { Env } from './env.ts'
+import { jobSettingsOf, type Env } from './env.ts'
 import { apiNotFound, errorHandler } from './http/errors.ts'
 import { refuseNulCharacters } from './http/input-guards.ts'
 import { noStore } from './http/no-store.ts'
 import { requireSameOrigin } from './http/same-origin.ts'
+import { createJobQueue } from './jobs/queue.ts'
 import type { Mailer } from './mail/mailer.ts'
 import { authRouter } from './routes/auth.ts'
 import { clubRoutesRouter, type ClubRoute } from './routes/club-routes.ts'
 import { healthRouter } from './routes/health.ts'
 import { allClubRoutes } from './routes/index.ts'
-import { AuditJobs } from './services/audit-jobs.ts'
 
 export interface AppOptions {
   env: Env
@@ -55,7 +55,7 @@ export function createApp({ env, database, logger, mailer, limits, clientDir }: 
       limits ?? { password: defaultPasswordRules, reset: defaultResetRules },
     ),
     logger,
-    auditJobs: new AuditJobs(database.db, logger),
+    jobs: createJobQueue(database.db, jobSettingsOf(env)),
   }
   const clubRoutes: ClubRoute[] = allClubRoutes(ctx)
 

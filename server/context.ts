@@ -3,8 +3,8 @@ import type { Limits } from './auth/limits.ts'
 import type { Sessions } from './auth/sessions.ts'
 import type { Db } from './db/client.ts'
 import { linkOrigin, type Env } from './env.ts'
+import type { JobQueue } from './jobs/queue.ts'
 import type { Mailer } from './mail/mailer.ts'
-import type { AuditJobs } from './services/audit-jobs.ts'
 
 /** What routes and services share: built once in createApp. */
 export interface AppContext {
@@ -14,7 +14,8 @@ export interface AppContext {
   mailer: Mailer
   limits: Limits
   logger: Logger
-  auditJobs: AuditJobs
+  /** Background work: audits and mail, done by workers. */
+  jobs: JobQueue
 }
 
 /**

@@ -35,6 +35,12 @@ export const envSchema = z.object({
    * number is that many proxies; anything else is Express's list of proxy addresses or subnets
    * (e.g. `loopback, 10.0.0.0/8`). Never "every hop": a client would choose its own address.
    */
+  /** How long an audit may run before another worker takes it over. */
+  JOB_AUDIT_TIMEOUT_SECONDS: z.coerce.number().int().min(1).default(300),
+  /** How often a worker looks for new jobs. */
+  JOB_POLL_SECONDS: z.coerce.number().min(0.5).default(1),
+  /** How often workers expire the jobs of dead workers. */
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
   TRUST_PROXY: z
     .string()
     .default('false')
@@ -81,3 +87,10 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   )
   throw new EnvError(`Invalid environment:\n${lines.join('\n')}`)
 }
+
+/** The job settings of this environment. */
+export const jobSettingsOf = (env: Env) => ({
+  auditTimeoutSeconds: env.JOB_AUDIT_TIMEOUT_SECONDS,
+  pollSeconds: env.JOB_POLL_SECONDS,
+  maintenanceSeconds: env.JOB_MAINTENANCE_SECONDS,
+})

@@ -3,7 +3,9 @@ import { fileURLToPath, pathToFileURL } from 'node:url'
 import { createApp } from './app.ts'
 import { schedulePurge } from './auth/purge.ts'
 import { createDatabase } from './db/client.ts'
-import { EnvError, parseEnv, type Env } from './env.ts'
+import type { AppContext } from './context.ts'
+import { EnvError, jobSettingsOf, parseEnv, type Env } from './env.ts'
+import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { closeReportPdfPool } from './services/report-pdf-pool.ts'
 import { createMailer } from './mail/mailer.ts'
@@ -15,12 +17,21 @@ export interface Serving {
   url: string
   /** The local mail viewer, when no mail provider is configured. */
   mailViewerUrl?: string
+  /** The local fake mail server, for worker processes to send through. */
+  fakeSmtpUrl?: string
   /** Stops taking connections, lets in-flight requests finish, then closes the pool. */
   close(): Promise<void>
 }
 
 /** Starts the HTTP server for the API and (when built) the client. */
-export async function serve(env: Env, options: { clientDir?: string } = {}): Promise<Serving> {
+export async function serve(
+  env: Env,
+  options: {
+    clientDir?: string
+    /** Run a job worker in this process too (tests, development); else workers run apart. */
+    worker?: boolean
+  } = {},
+): Promise<Serving> {
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
   const logger = createLogger(env)
   const database = createDatabase(env.DATABASE_URL, logger)
@@ -32,9 +43,20 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
     mailer,
     clientDir: options.clientDir ?? defaultClientDir,
   })
+  const worker = options.worker
+    ? await startJobWorker({
+        connectionString: env.DATABASE_URL,
+        db: database.db,
+        mailer,
+        logger,
+        settings: jobSettingsOf(env),
+      })
+    : undefined
+  if (worker) (app.locals.context as AppContext).jobs.attachWorker(worker.wake)
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(env.PORT, env.HOST, (err?: Error) => {
       if (!err) return resolve(s)
+      void worker?.stop(0)
       void database.close()
       void mailer.close()
       reject(
@@ -58,13 +80,24 @@ export async function serve(env: Env, options: { clientDir?: string } = {}): Pro
       const force = setTimeout(() => server.closeAllConnections(), 10_000)
       server.close(() => {
         clearTimeout(force)
-        Promise.allSettled([database.close(), mailer.close(), closeReportPdfPool()]).then(() =>
-          resolve(),
-        )
+        Promise.allSettled([
+          (async () => {
+            await worker?.stop()
+            await database.close()
+          })(),
+          mailer.close(),
+          closeReportPdfPool(),
+        ]).then(() => resolve())
       })
       server.closeIdleConnections()
     }))
-  return { server, url, mailViewerUrl: mailer.viewer?.url, close }
+  return {
+    server,
+    url,
+    mailViewerUrl: mailer.viewer?.url,
+    fakeSmtpUrl: mailer.fake ? `smtp://127.0.0.1:${mailer.fake.port}` : undefined,
+    close,
+  }
 }
 
 /** Runs until SIGINT or SIGTERM, then shuts down gracefully and runs `onStop`. */

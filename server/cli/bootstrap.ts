@@ -1,6 +1,7 @@
 import { fileURLToPath } from 'node:url'
 import { createDatabase } from '../db/client.ts'
 import { applyMigrations } from '../db/migrate.ts'
+import { ensureJobSchema } from '../jobs/queue.ts'
 import { backfillRecordTimelines } from '../services/progress.ts'
 import { seedDemoIfEmpty } from '../../seed/demo.ts'
 import {
@@ -41,6 +42,7 @@ export async function prepareDatabase(url: string, options: { seed?: boolean; to
   const database = createDatabase(url)
   try {
     await applyMigrations(database.db)
+    await ensureJobSchema(url)
     await backfillRecordTimelines(database.db)
     return options.seed === false
       ? null

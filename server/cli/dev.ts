@@ -15,7 +15,7 @@ try {
   const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${Number(process.env.VITE_PORT ?? 5173)}`
   const api = await serve(
     { ...env, DATABASE_URL: local.url, PUBLIC_URL: publicUrl },
-    { clientDir: '' },
+    { clientDir: '', worker: true },
   )
   process.env.TWOFOLD_API_URL = api.url
   const vite = await createServer({ root: projectDir, configFile: `${projectDir}/vite.config.ts` })

@@ -9,6 +9,8 @@ export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 export type DbOrTx = Db | Tx
 
 export interface Database {
+  /** The connection string it was made from (job workers open their own connections). */
+  url: string
   db: Db
   pool: pg.Pool
   /** True when a trivial query answers within the connection timeout. */
@@ -28,6 +30,7 @@ export function createDatabase(url: string, logger?: Logger): Database {
   pool.on('error', (err) => logger?.warn({ err: err.message }, 'database connection lost'))
   const db = drizzle({ client: pool, schema, casing: 'snake_case' })
   return {
+    url,
     db,
     pool,
     async ping() {

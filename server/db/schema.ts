@@ -18,6 +18,7 @@ import {
   varchar,
 } from 'drizzle-orm/pg-core'
 import type { AuditFigures, AuditResult, StoredAuditResult } from '../../shared/domain/audit.ts'
+import type { AuditRun } from '../../shared/schemas/audits.ts'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
 import {
   directions,
@@ -484,4 +485,48 @@ export const rateLimits = pgTable('rate_limits', {
   key: varchar({ length: 255 }).primaryKey(),
   points: integer().notNull().default(0),
   expire: bigint({ mode: 'number' }),
+})
+
+/**
+ * An audit asked for and its progress, written by whichever worker computes it, so that any web
+ * process answers a poll. The run's job (pg-boss) is sent in the same transaction as this row.
+ */
+export const auditRuns = pgTable(
+  'audit_runs',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    /** The run as asked for: its squad (null for the whole club) and date. */
+    run: jsonb().$type<AuditRun>().notNull(),
+    requestedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    requesterRole: roleEnum().notNull(),
+    jobId: uuid(),
+    status: text().$type<'running' | 'done' | 'failed'>().notNull().default('running'),
+    phase: text().notNull().default('queued'),
+    done: integer().notNull().default(0),
+    total: integer().notNull().default(1),
+    auditId: uuid(),
+    error: text(),
+    createdAt: createdAt(),
+    finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  },
+  (t) => [primaryKey({ columns: [t.clubId, t.id] })],
+)
+
+/**
+ * Mail on its way: written in the same transaction as the change that causes it and sent by a
+ * worker, retried while the provider is down. Once sent, the text (which may hold a link that
+ * signs someone in) is cleared.
+ */
+export const mailOutbox = pgTable('mail_outbox', {
+  id: uuid().primaryKey().defaultRandom(),
+  to: text().notNull(),
+  subject: text().notNull(),
+  text: text(),
+  createdAt: createdAt(),
+  sentAt: timestamp({ withTimezone: true, mode: 'date' }),
+  attempts: integer().notNull().default(0),
+  lastError: text(),
 })

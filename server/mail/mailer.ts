@@ -8,6 +8,8 @@ export interface Mail {
   to: string
   subject: string
   text: string
+  /** A stable id, so a receiver can tell a message sent twice after a crash. */
+  messageId?: string
 }
 
 export interface Mailer {
@@ -47,6 +49,7 @@ export async function createMailer(
         to: mail.to,
         subject: mail.subject,
         text: mail.text,
+        messageId: mail.messageId,
       })
       logger?.info({ subject: mail.subject }, 'mail sent')
     },

@@ -8,6 +8,8 @@ import {
   requirementProfileSchema,
 } from '../../shared/schemas/audits.ts'
 import { publicOrigin, type AppContext } from '../context.ts'
+import { enqueueMail } from '../mail/outbox.ts'
+import { getAuditRun, submitAuditRun } from '../services/audit-runs.ts'
 import { clubs, memberships, users } from '../db/schema.ts'
 import { bounded, boundedQueue, type BoundedLimits, type BoundedQueue } from '../http/bounded.ts'
 import { AppError } from '../http/errors.ts'
@@ -66,15 +68,19 @@ export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubR
       method: 'post',
       path: '/audits',
       allow: ['director'],
-      handler: async (req, res) =>
-        res.status(202).json(await ctx.auditJobs.submit(req.club, auditRunSchema.parse(req.body))),
+      handler: async (req, res) => {
+        const run = auditRunSchema.parse(req.body)
+        res.status(202).json(await submitAuditRun(ctx.db, ctx.jobs, req.club, run))
+      },
     },
     {
       method: 'get',
       path: '/audit-jobs/:jobId',
       allow: ['director'],
-      handler: async (req, res) =>
-        res.json(ctx.auditJobs.get(req.club.clubId, z.uuid().parse(req.params.jobId))),
+      handler: async (req, res) => {
+        const id = z.uuid().parse(req.params.jobId)
+        res.json(await getAuditRun(ctx.db, ctx.jobs, req.club.clubId, id))
+      },
     },
     {
       method: 'get',
@@ -96,28 +102,33 @@ export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubR
       allow: ['director'],
       handler: async (req, res) => {
         const { id } = idParams.parse(req.params)
-        const row = await publish(ctx.db, req.club, id)
-        const board = await ctx.db
-          .select({ email: users.email, name: users.name })
-          .from(memberships)
-          .innerJoin(users, eq(users.id, memberships.userId))
-          .where(and(eq(memberships.clubId, req.club.clubId), eq(memberships.role, 'board')))
         const name = await clubName(req.club.clubId)
-        for (const member of board) {
-          await ctx.mailer.send({
-            to: member.email,
-            subject: `${name}: the audit as of ${row.asOf} is ready`,
-            text: [
-              `Hello ${member.name},`,
-              '',
-              `The technical director has published the forward/backward audit of ${name} as of ${row.asOf}.`,
-              'The summary chart and the headline figures are on the board page:',
-              '',
-              `${publicOrigin(ctx.env)}/board`,
-            ].join('\n'),
-          })
-        }
-        res.json({ ...(await getReport(ctx.db, req.club, id)).audit, notified: board.length })
+        // Publishing and the board's notices commit together: no notice without the audit
+        // published, no published audit without its notices on their way.
+        const notified = await ctx.db.transaction(async (tx) => {
+          const row = await publish(tx, req.club, id)
+          const board = await tx
+            .select({ email: users.email, name: users.name })
+            .from(memberships)
+            .innerJoin(users, eq(users.id, memberships.userId))
+            .where(and(eq(memberships.clubId, req.club.clubId), eq(memberships.role, 'board')))
+          for (const member of board) {
+            await enqueueMail(tx, ctx.jobs, {
+              to: member.email,
+              subject: `${name}: the audit as of ${row.asOf} is ready`,
+              text: [
+                `Hello ${member.name},`,
+                '',
+                `The technical director has published the forward/backward audit of ${name} as of ${row.asOf}.`,
+                'The summary chart and the headline figures are on the board page:',
+                '',
+                `${publicOrigin(ctx.env)}/board`,
+              ].join('\n'),
+            })
+          }
+          return board.length
+        })
+        res.json({ ...(await getReport(ctx.db, req.club, id)).audit, notified })
       },
     },
     {

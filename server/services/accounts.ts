@@ -8,6 +8,7 @@ import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { clubs, memberships, passwordResets, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
+import { enqueueMail } from '../mail/outbox.ts'
 
 export const resetLifetimeMs = 2 * 3_600_000
 
@@ -107,6 +108,7 @@ export async function requestPasswordReset(ctx: AppContext, email: string, origi
   if (!user) return
   const token = newToken()
   // A new link ends every earlier one: only the newest mail can reset the password.
+  // The link and its mail commit together.
   await ctx.db.transaction(async (tx) => {
     // Two requests at once take turns on the person's row: one link survives, not two.
     await tx.select({ id: users.id }).from(users).where(eq(users.id, user.id)).for('update')
@@ -116,20 +118,20 @@ export async function requestPasswordReset(ctx: AppContext, email: string, origi
       userId: user.id,
       expiresAt: new Date(Date.now() + resetLifetimeMs),
     })
-  })
-  await ctx.mailer.send({
-    to: user.email,
-    subject: 'Reset your Twofold password',
-    text: [
-      `Hello ${user.name},`,
-      '',
-      'Someone (we hope you) asked to reset the password of your Twofold account.',
-      'Open this link within 2 hours to choose a new password:',
-      '',
-      `${origin}/reset-password#token=${token}`,
-      '',
-      'The link works once. If you did not ask for it, ignore this message: your password stays as it is.',
-    ].join('\n'),
+    await enqueueMail(tx, ctx.jobs, {
+      to: user.email,
+      subject: 'Reset your Twofold password',
+      text: [
+        `Hello ${user.name},`,
+        '',
+        'Someone (we hope you) asked to reset the password of your Twofold account.',
+        'Open this link within 2 hours to choose a new password:',
+        '',
+        `${origin}/reset-password#token=${token}`,
+        '',
+        'The link works once. If you did not ask for it, ignore this message: your password stays as it is.',
+      ].join('\n'),
+    })
   })
 }
 

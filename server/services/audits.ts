@@ -152,12 +152,16 @@ export async function checkRun(db: DbOrTx, access: ClubAccess, run: AuditRun): P
 export type ProgressListener = (progress: { phase: string; done: number; total: number }) => void
 
 /** Runs and stores one audit; the stored row is never changed afterwards. */
-export async function runAndStore(
+/** What `computeAudit` produces: the row to store for the run. */
+export type ComputedAudit = typeof audits.$inferInsert
+
+/** Reads the inputs of a run and computes its result: the audit row to store, not yet stored. */
+export async function computeAudit(
   db: DbOrTx,
   access: ClubAccess,
   run: AuditRun,
   onProgress: ProgressListener = () => {},
-) {
+): Promise<ComputedAudit> {
   const asOf = await checkRun(db, access, run)
   onProgress({ phase: 'reading', done: 0, total: 1 })
   const inputs = await gatherInputs(db, access.clubId, run.squadId, asOf)
@@ -165,18 +169,26 @@ export async function runAndStore(
   const result = runAudit(inputs, {}, (p: AuditProgress) => onProgress(p))
   onProgress({ phase: 'hashing', done: 0, total: 1 })
   const inputHash = await auditInputHash(inputs)
-  const [row] = await db
-    .insert(audits)
-    .values({
-      clubId: access.clubId,
-      squadId: run.squadId,
-      asOf,
-      inputHash,
-      result: packAuditResult(result),
-      figures: auditFigures(result),
-      createdBy: access.userId,
-    })
-    .returning({ id: audits.id })
+  return {
+    clubId: access.clubId,
+    squadId: run.squadId,
+    asOf,
+    inputHash,
+    result: packAuditResult(result),
+    figures: auditFigures(result),
+    createdBy: access.userId,
+  }
+}
+
+/** Computes and stores an audit at once (the demo's audits; tests). */
+export async function runAndStore(
+  db: DbOrTx,
+  access: ClubAccess,
+  run: AuditRun,
+  onProgress: ProgressListener = () => {},
+) {
+  const values = await computeAudit(db, access, run, onProgress)
+  const [row] = await db.insert(audits).values(values).returning({ id: audits.id })
   onProgress({ phase: 'done', done: 1, total: 1 })
   return row!.id
 }

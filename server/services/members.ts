@@ -16,6 +16,7 @@ import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { clubs, coachSquads, invitations, memberships, users } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
+import { enqueueMail } from '../mail/outbox.ts'
 import { assertStrongPassword, findUserByEmail } from './accounts.ts'
 
 export const invitationLifetimeMs = 7 * 24 * 3_600_000
@@ -176,8 +177,10 @@ export async function listInvitations(db: DbOrTx, clubId: string): Promise<Invit
   }))
 }
 
+/** Puts the invitation's mail on its way in `tx`'s transaction. */
 async function sendInvitation(
   ctx: AppContext,
+  tx: DbOrTx,
   invitation: {
     clubId: string
     email: string
@@ -188,7 +191,7 @@ async function sendInvitation(
   token: string,
   origin: string,
 ) {
-  const [club] = await ctx.db.select().from(clubs).where(eq(clubs.id, invitation.clubId))
+  const [club] = await tx.select().from(clubs).where(eq(clubs.id, invitation.clubId))
   const window =
     invitation.role === 'clinician'
       ? [
@@ -196,7 +199,7 @@ async function sendInvitation(
           `Your access to the club's squads is open from ${invitation.accessStartsOn} to ${invitation.accessEndsOn}.`,
         ]
       : []
-  await ctx.mailer.send({
+  await enqueueMail(tx, ctx.jobs, {
     to: invitation.email,
     subject: `You are invited to ${club!.name} on Twofold`,
     text: [
@@ -256,20 +259,23 @@ export async function createInvitation(
     )
   }
   const token = newToken()
-  const [row] = await ctx.db
-    .insert(invitations)
-    .values({
-      clubId: access.clubId,
-      email: input.email,
-      role: input.role,
-      ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
-      tokenHash: hashToken(token),
-      expiresAt: new Date(Date.now() + invitationLifetimeMs),
-      invitedBy: access.userId,
-    })
-    .returning()
-  await sendInvitation(ctx, row!, token, origin)
-  return (await listInvitations(ctx.db, access.clubId)).find((i) => i.id === row!.id)!
+  const row = await ctx.db.transaction(async (tx) => {
+    const [created] = await tx
+      .insert(invitations)
+      .values({
+        clubId: access.clubId,
+        email: input.email,
+        role: input.role,
+        ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
+        tokenHash: hashToken(token),
+        expiresAt: new Date(Date.now() + invitationLifetimeMs),
+        invitedBy: access.userId,
+      })
+      .returning()
+    await sendInvitation(ctx, tx, created!, token, origin)
+    return created!
+  })
+  return (await listInvitations(ctx.db, access.clubId)).find((i) => i.id === row.id)!
 }
 
 async function openInvitation(db: DbOrTx, clubId: string, id: string) {
@@ -295,13 +301,15 @@ export async function resendInvitation(
   id: string,
   origin: string,
 ) {
-  const row = await openInvitation(ctx.db, access.clubId, id)
   const token = newToken()
-  await ctx.db
-    .update(invitations)
-    .set({ tokenHash: hashToken(token), expiresAt: new Date(Date.now() + invitationLifetimeMs) })
-    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
-  await sendInvitation(ctx, row, token, origin)
+  await ctx.db.transaction(async (tx) => {
+    const row = await openInvitation(tx, access.clubId, id)
+    await tx
+      .update(invitations)
+      .set({ tokenHash: hashToken(token), expiresAt: new Date(Date.now() + invitationLifetimeMs) })
+      .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+    await sendInvitation(ctx, tx, row, token, origin)
+  })
 }
 
 export async function withdrawInvitation(ctx: AppContext, access: ClubAccess, id: string) {

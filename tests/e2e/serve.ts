@@ -28,7 +28,7 @@ const env = parseEnv({
   LOG_LEVEL: 'warn',
   DATABASE_URL: url,
 })
-const serving = await serve({ ...env, NODE_ENV: 'test' })
+const serving = await serve({ ...env, NODE_ENV: 'test' }, { worker: true })
 console.log(`e2e server on ${serving.url}`)
 
 let stopping = false

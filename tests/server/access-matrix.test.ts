@@ -1,3 +1,4 @@
+import { submitAuditRun } from '../../server/services/audit-runs.ts'
 import { randomBytes } from 'node:crypto'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
@@ -354,7 +355,7 @@ const matrix: Record<string, Row> = {
     allow: ['director'],
     ok: 200,
     request: async (f) => ({
-      path: `/audit-jobs/${f.t.context.auditJobs.start(directorAccess(f), { squadId: null }).id}`,
+      path: `/audit-jobs/${(await submitAuditRun(f.t.context.db, f.t.context.jobs, directorAccess(f), { squadId: null })).id}`,
     }),
   },
   'GET /audits/:id': {

@@ -36,7 +36,8 @@ describe('GET /api/health', () => {
 
     it('answers 503 with the database down, and ok again once it is back', async () => {
       const database = createDatabase(clusterUrl(cluster, 'postgres'))
-      const t = await testApp(database)
+      // An empty database: no tables, no job queues to work on.
+      const t = await testApp(database, { worker: false })
       const app = t.app
       try {
         expect((await request(app).get('/api/health')).body.database).toBe('up')

@@ -1,3 +1,4 @@
+import { settledAuditRun } from '../../server/services/audit-runs.ts'
 import { randomUUID } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { eq } from 'drizzle-orm'
@@ -171,7 +172,7 @@ describe('POST /api/clubs/:clubId/audits', () => {
       .length
 
   it('refuses a squad of another club with 404 before starting a job', async () => {
-    const start = vi.spyOn(t.context.auditJobs, 'start')
+    const start = vi.spyOn(t.context.jobs, 'send')
     const before = await auditCount()
     const res = await director
       .post(`${base}/audits`)
@@ -185,7 +186,7 @@ describe('POST /api/clubs/:clubId/audits', () => {
   })
 
   it('refuses a squad id that names no squad with 404 before starting a job', async () => {
-    const start = vi.spyOn(t.context.auditJobs, 'start')
+    const start = vi.spyOn(t.context.jobs, 'send')
     const before = await auditCount()
     const res = await director
       .post(`${base}/audits`)
@@ -202,8 +203,8 @@ describe('POST /api/clubs/:clubId/audits', () => {
       .post(`${base}/audits`)
       .send({ squadId: fx.squad.id, asOf: '2026-06-30' })
     expect(res.status).toBe(202)
-    const job = await t.context.auditJobs.settled(res.body.id)
-    expect(job?.status).toBe('done')
+    const job = await settledAuditRun(database.db, t.context.jobs, fx.club.id, res.body.id)
+    expect(job.status).toBe('done')
   })
 
   it('keeps running audits to the director', async () => {

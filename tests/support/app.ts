@@ -1,6 +1,8 @@
 import pino from 'pino'
 import { createApp } from '../../server/app.ts'
 import type { LimitRules } from '../../server/auth/limits.ts'
+import type { JobSettings } from '../../server/jobs/queue.ts'
+import { startJobWorker } from '../../server/jobs/worker.ts'
 import type { Database } from '../../server/db/client.ts'
 import { parseEnv, type Env } from '../../server/env.ts'
 import { createMailer, type Mailer } from '../../server/mail/mailer.ts'
@@ -8,6 +10,13 @@ import type { ClubRoute } from '../../server/routes/club-routes.ts'
 import type { AppContext } from '../../server/context.ts'
 
 export const testEnv = parseEnv({ NODE_ENV: 'test', LOG_LEVEL: 'silent' })
+
+/** Workers poll often in tests, where a job is usually also woken at once. */
+export const testJobSettings: JobSettings = {
+  auditTimeoutSeconds: 60,
+  pollSeconds: 0.5,
+  maintenanceSeconds: 30,
+}
 
 export interface TestApp {
   app: ReturnType<typeof createApp>
@@ -20,22 +29,33 @@ export interface TestApp {
 /** The real app over a test database, with the local fake mail server and no built client. */
 export async function testApp(
   database: Database,
-  options: { env?: Partial<Env>; limits?: LimitRules } = {},
+  options: { env?: Partial<Env>; limits?: LimitRules; worker?: boolean } = {},
 ): Promise<TestApp> {
   const env = { ...testEnv, ...options.env }
   const mailer = await createMailer(env)
-  const app = createApp({
-    env,
-    database,
-    logger: pino({ level: 'silent' }),
-    mailer,
-    limits: options.limits,
-  })
+  const logger = pino({ level: 'silent' })
+  const app = createApp({ env, database, logger, mailer, limits: options.limits })
+  const context = app.locals.context as AppContext
+  // Audits and mail are done by a worker in this process, as in development.
+  const worker =
+    options.worker === false
+      ? undefined
+      : await startJobWorker({
+          connectionString: database.url,
+          db: database.db,
+          mailer,
+          logger,
+          settings: testJobSettings,
+        })
+  if (worker) context.jobs.attachWorker(worker.wake)
   return {
     app,
     mailer,
     clubRoutes: app.locals.clubRoutes as ClubRoute[],
-    context: app.locals.context as AppContext,
-    close: () => mailer.close(),
+    context,
+    async close() {
+      await worker?.stop(2_000)
+      await mailer.close()
+    },
   }
 }

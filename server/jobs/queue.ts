@@ -1,0 +1,113 @@
+import PgBoss from 'pg-boss'
+import { sql, type SQL } from 'drizzle-orm'
+import type { DbOrTx } from '../db/client.ts'
+
+/** The queues of Twofold's background work. */
+export const queues = {
+  auditRun: 'audit-run',
+  mail: 'mail',
+} as const
+export type QueueName = (typeof queues)[keyof typeof queues]
+
+export interface JobSettings {
+  /** How long an audit may run before another worker takes it over (its worker died). */
+  auditTimeoutSeconds: number
+  /** How often a worker looks for new jobs when it is not woken. */
+  pollSeconds: number
+  /** How often a worker expires the jobs of dead workers and retries them. */
+  maintenanceSeconds: number
+}
+
+export const defaultJobSettings: JobSettings = {
+  auditTimeoutSeconds: 300,
+  pollSeconds: 1,
+  maintenanceSeconds: 30,
+}
+
+/** Retries with back-off: an audit a few times; mail for about a day while SMTP is down. */
+export function queueOptions(settings: JobSettings) {
+  return {
+    [queues.auditRun]: {
+      retryLimit: 3,
+      retryDelay: 5,
+      retryBackoff: true,
+      expireInSeconds: settings.auditTimeoutSeconds,
+    },
+    [queues.mail]: { retryLimit: 14, retryDelay: 15, retryBackoff: true, expireInSeconds: 60 },
+  } satisfies Record<QueueName, PgBoss.Queue extends infer Q ? Omit<Q, 'name'> : never>
+}
+
+/**
+ * pg-boss's way to run its SQL, over a Drizzle handle or an open transaction: a job sent through
+ * it is committed, or rolled back, with the change that caused it.
+ */
+export function jobExecutor(db: DbOrTx): PgBoss.Db {
+  return {
+    async executeSql(text: string, values: unknown[] = []) {
+      const chunks: SQL[] = []
+      let last = 0
+      for (const match of text.matchAll(/\$(\d+)/g)) {
+        chunks.push(sql.raw(text.slice(last, match.index)))
+        chunks.push(sql`${values[Number(match[1]) - 1] ?? null}`)
+        last = match.index + match[0].length
+      }
+      chunks.push(sql.raw(text.slice(last)))
+      const result = await db.execute(sql.join(chunks))
+      return { rows: result.rows }
+    },
+  }
+}
+
+/**
+ * Sends jobs from a web process. The sending instance is never started: it only writes job rows,
+ * through the caller's transaction. A worker in the same process (tests, development) can be
+ * attached so that a new job is picked up at once instead of at the next poll.
+ */
+export function createJobQueue(db: DbOrTx, settings: JobSettings = defaultJobSettings) {
+  const boss = new PgBoss({ db: jobExecutor(db) })
+  const options = queueOptions(settings)
+  let waker: ((queue: QueueName) => void) | undefined
+  return {
+    /** Adds a job in `tx`'s transaction (or on its own); answers the job's id. */
+    async send(tx: DbOrTx, queue: QueueName, data: object) {
+      const id = await boss.send(queue, data, { ...options[queue], db: jobExecutor(tx) })
+      // A worker in this process looks a moment later, once the caller's transaction committed.
+      if (waker) setTimeout(() => waker?.(queue), 30).unref()
+      return id!
+    },
+    /** The state of a job, from the live or the archived jobs. */
+    async state(queue: QueueName, id: string) {
+      const job = await boss.getJobById(queue, id, { includeArchive: true, db: jobExecutor(db) })
+      return job?.state ?? null
+    },
+    attachWorker(wake: (queue: QueueName) => void) {
+      waker = wake
+    },
+  }
+}
+
+export type JobQueue = ReturnType<typeof createJobQueue>
+
+/**
+ * Installs or updates pg-boss's own tables (schema `pgboss`) and Twofold's queues. Part of the
+ * migration step: web and worker processes only check that they are there.
+ */
+export async function ensureJobSchema(connectionString: string, settings = defaultJobSettings) {
+  const boss = new PgBoss({
+    connectionString,
+    max: 2,
+    migrate: true,
+    supervise: false,
+    schedule: false,
+  })
+  boss.on('error', () => {})
+  await boss.start()
+  try {
+    for (const [name, options] of Object.entries(queueOptions(settings))) {
+      if (await boss.getQueue(name)) await boss.updateQueue(name, { name, ...options })
+      else await boss.createQueue(name, { name, ...options })
+    }
+  } finally {
+    await boss.stop({ graceful: false, wait: true })
+  }
+}

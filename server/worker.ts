@@ -1,0 +1,55 @@
+import { pathToFileURL } from 'node:url'
+import { createDatabase } from './db/client.ts'
+import { EnvError, jobSettingsOf, parseEnv } from './env.ts'
+import { startJobWorker } from './jobs/worker.ts'
+import { createLogger } from './logger.ts'
+import { createMailer } from './mail/mailer.ts'
+
+/**
+ * A worker process: does the audits and sends the mail that web processes put on the queues.
+ * Run as many as the work needs, on any machine that reaches the database and the mail server.
+ * SIGTERM lets the jobs in hand finish; a job left by a worker that died is retried by another.
+ */
+export async function runWorker() {
+  const env = parseEnv()
+  if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
+  const logger = createLogger(env)
+  const database = createDatabase(env.DATABASE_URL, logger)
+  const mailer = await createMailer(env, logger)
+  const worker = await startJobWorker({
+    connectionString: env.DATABASE_URL,
+    db: database.db,
+    mailer,
+    logger,
+    settings: jobSettingsOf(env),
+  })
+  logger.info('worker started')
+  let stopping = false
+  const stop = async (reason: string, code: number) => {
+    if (stopping) return
+    stopping = true
+    logger.info({ reason }, 'worker stopping')
+    await worker.stop().catch(() => undefined)
+    await Promise.allSettled([database.close(), mailer.close()])
+    process.exit(code)
+  }
+  process.on('SIGTERM', () => void stop('SIGTERM', 0))
+  process.on('SIGINT', () => void stop('SIGINT', 0))
+  process.on('unhandledRejection', (err) => {
+    logger.fatal({ err }, 'unhandled rejection')
+    void stop('unhandledRejection', 1)
+  })
+  process.on('uncaughtException', (err) => {
+    logger.fatal({ err }, 'uncaught exception')
+    void stop('uncaughtException', 1)
+  })
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  try {
+    await runWorker()
+  } catch (err) {
+    console.error(err instanceof EnvError ? err.message : err)
+    process.exit(1)
+  }
+}
