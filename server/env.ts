@@ -35,6 +35,11 @@ export const envSchema = z.object({
     .default(12),
   /** Behind a TLS-terminating proxy: trust X-Forwarded-* from it. */
   TRUST_PROXY: booleanFlag.default(false),
+  /**
+   * `npm start` and `npm run dev` only: load the demo club into an empty DATABASE_URL database
+   * too. Its accounts share one password, published in the README, so never by default.
+   */
+  TWOFOLD_DEMO_SEED: booleanFlag.default(false),
 })
 
 /**
@@ -62,12 +67,30 @@ export function linkOrigin(env: Pick<Env, 'PUBLIC_URL' | 'HOST' | 'PORT'>): stri
 /** Thrown with one line per bad variable, ready to print. */
 export class EnvError extends Error {}
 
-export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
-  const result = productionSchema.safeParse(source)
+function parseWith<T>(schema: z.ZodType<T>, source: NodeJS.ProcessEnv): T {
+  const result = schema.safeParse(source)
   if (result.success) return result.data
   const lines = result.error.issues.map(
     (issue) =>
       `  ${issue.path.join('.')}: ${issue.message} (got ${JSON.stringify(source[String(issue.path[0])])})`,
   )
   throw new EnvError(`Invalid environment:\n${lines.join('\n')}`)
+}
+
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  return parseWith(productionSchema, source)
+}
+
+/**
+ * The settings of `npm run db:migrate`, which needs the database alone. In production that is
+ * DATABASE_URL (there is no project-local cluster to fall back on).
+ */
+export function parseMigrateEnv(
+  source: NodeJS.ProcessEnv = process.env,
+): Pick<Env, 'NODE_ENV' | 'DATABASE_URL'> {
+  const schema = envSchema.pick({ NODE_ENV: true, DATABASE_URL: true }).superRefine((env, ctx) => {
+    if (env.NODE_ENV === 'production' && !env.DATABASE_URL)
+      ctx.addIssue({ code: 'custom', path: ['DATABASE_URL'], message: 'required in production' })
+  })
+  return parseWith(schema, source)
 }
