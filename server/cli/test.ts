@@ -101,10 +101,7 @@ const clientBuilt = await check('client build (vite build)', bin('vite'), [
   'warn',
 ])
 rmSync(join(projectDir, 'build'), { recursive: true, force: true })
-const serverBuilt = await check('server build (tsc -p tsconfig.server.json)', bin('tsc'), [
-  '-p',
-  'tsconfig.server.json',
-])
+const serverBuilt = await check('server build (tsc)', bin('tsc'), ['-p', 'tsconfig.server.json'])
 const built = clientBuilt && serverBuilt
 
 {
