@@ -7,6 +7,7 @@ export default defineConfigWithVueTs(
   { name: 'app/files-to-lint', files: ['**/*.{ts,mts,tsx,vue}'] },
   globalIgnores([
     '**/dist/**',
+    'build/**',
     '**/node_modules/**',
     'drizzle/**',
     '.data/**',

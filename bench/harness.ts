@@ -1,7 +1,6 @@
 import { performance } from 'node:perf_hooks'
 import { createDatabase, type Database } from '../server/db/client.ts'
 import { applyMigrations } from '../server/db/migrate.ts'
-import { ensureJobSchema } from '../server/jobs/queue.ts'
 import {
   clusterUrl,
   ensureDatabase,
@@ -45,7 +44,6 @@ export async function withBenchDatabase<T>(fn: (database: Database) => Promise<T
   const database = createDatabase(clusterUrl(cluster, 'bench'))
   try {
     await applyMigrations(database.db)
-    await ensureJobSchema(database.url)
     return await fn(database)
   } finally {
     await database.close()

@@ -1,5 +1,9 @@
 import { z } from 'zod'
 
+const booleanFlag = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no'])
+  .transform((value) => value === 'true' || value === '1' || value === 'yes')
+
 /**
  * Every setting the server reads from the environment. Parsed once at start so that a bad value
  * stops the process with a message naming the variable, instead of failing later at first use.
@@ -29,18 +33,18 @@ export const envSchema = z.object({
     .min(1)
     .max(24 * 30)
     .default(12),
-  /**
-   * Behind a TLS-terminating proxy: which hops' X-Forwarded-* to believe. `true` is one proxy in
-   * front (the client address is the last one that proxy added, never one the client wrote); a
-   * number is that many proxies; anything else is Express's list of proxy addresses or subnets
-   * (e.g. `loopback, 10.0.0.0/8`). Never "every hop": a client would choose its own address.
-   */
   /** How long an audit may run before another worker takes it over. */
   JOB_AUDIT_TIMEOUT_SECONDS: z.coerce.number().int().min(1).default(300),
   /** How often a worker looks for new jobs. */
   JOB_POLL_SECONDS: z.coerce.number().min(0.5).default(1),
   /** How often workers expire the jobs of dead workers. */
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
+  /**
+   * Behind a TLS-terminating proxy: which hops' X-Forwarded-* to believe. `true` is one proxy in
+   * front (the client address is the last one that proxy added, never one the client wrote); a
+   * number is that many proxies; anything else is Express's list of proxy addresses or subnets
+   * (e.g. `loopback, 10.0.0.0/8`). Never "every hop": a client would choose its own address.
+   */
   TRUST_PROXY: z
     .string()
     .default('false')
@@ -51,6 +55,11 @@ export const envSchema = z.object({
       if (/^\d+$/.test(v)) return Number(v)
       return value.trim()
     }),
+  /**
+   * `npm start` and `npm run dev` only: load the demo club into an empty DATABASE_URL database
+   * too. Its accounts share one password, published in the README, so never by default.
+   */
+  TWOFOLD_DEMO_SEED: booleanFlag.default(false),
 })
 
 /**
@@ -78,14 +87,32 @@ export function linkOrigin(env: Pick<Env, 'PUBLIC_URL' | 'HOST' | 'PORT'>): stri
 /** Thrown with one line per bad variable, ready to print. */
 export class EnvError extends Error {}
 
-export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
-  const result = productionSchema.safeParse(source)
+function parseWith<T>(schema: z.ZodType<T>, source: NodeJS.ProcessEnv): T {
+  const result = schema.safeParse(source)
   if (result.success) return result.data
   const lines = result.error.issues.map(
     (issue) =>
       `  ${issue.path.join('.')}: ${issue.message} (got ${JSON.stringify(source[String(issue.path[0])])})`,
   )
   throw new EnvError(`Invalid environment:\n${lines.join('\n')}`)
+}
+
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  return parseWith(productionSchema, source)
+}
+
+/**
+ * The settings of `npm run db:migrate`, which needs the database alone. In production that is
+ * DATABASE_URL (there is no project-local cluster to fall back on).
+ */
+export function parseMigrateEnv(
+  source: NodeJS.ProcessEnv = process.env,
+): Pick<Env, 'NODE_ENV' | 'DATABASE_URL'> {
+  const schema = envSchema.pick({ NODE_ENV: true, DATABASE_URL: true }).superRefine((env, ctx) => {
+    if (env.NODE_ENV === 'production' && !env.DATABASE_URL)
+      ctx.addIssue({ code: 'custom', path: ['DATABASE_URL'], message: 'required in production' })
+  })
+  return parseWith(schema, source)
 }
 
 /** The job settings of this environment. */

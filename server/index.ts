@@ -1,5 +1,8 @@
+import { existsSync } from 'node:fs'
 import type { Server } from 'node:http'
-import { fileURLToPath, pathToFileURL } from 'node:url'
+import { join } from 'node:path'
+import { pathToFileURL } from 'node:url'
+import type { Logger } from 'pino'
 import { createApp } from './app.ts'
 import { schedulePurge } from './auth/purge.ts'
 import { createDatabase } from './db/client.ts'
@@ -9,8 +12,9 @@ import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { closeReportPdfPool } from './services/report-pdf-pool.ts'
 import { createMailer } from './mail/mailer.ts'
+import { projectDir } from './paths.ts'
 
-export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
+export const defaultClientDir = join(projectDir, 'dist')
 
 export interface Serving {
   server: Server
@@ -19,6 +23,7 @@ export interface Serving {
   mailViewerUrl?: string
   /** The local fake mail server, for worker processes to send through. */
   fakeSmtpUrl?: string
+  logger: Logger
   /** Stops taking connections, lets in-flight requests finish, then closes the pool. */
   close(): Promise<void>
 }
@@ -33,6 +38,10 @@ export async function serve(
   } = {},
 ): Promise<Serving> {
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
+  const clientDir = options.clientDir ?? defaultClientDir
+  // Production serves the client built beforehand, never building it itself.
+  if (env.NODE_ENV === 'production' && !existsSync(join(clientDir, 'index.html')))
+    throw new EnvError(`No client build in ${clientDir}: run \`npm run build\` first.`)
   const logger = createLogger(env)
   const database = createDatabase(env.DATABASE_URL, logger)
   const mailer = await createMailer(env, logger)
@@ -41,7 +50,7 @@ export async function serve(
     database,
     logger,
     mailer,
-    clientDir: options.clientDir ?? defaultClientDir,
+    clientDir,
   })
   const worker = options.worker
     ? await startJobWorker({
@@ -96,6 +105,7 @@ export async function serve(
     url,
     mailViewerUrl: mailer.viewer?.url,
     fakeSmtpUrl: mailer.fake ? `smtp://127.0.0.1:${mailer.fake.port}` : undefined,
+    logger,
     close,
   }
 }
@@ -115,11 +125,29 @@ export function stopOnSignals(serving: Serving, onStop: () => void | Promise<voi
   process.on('SIGTERM', () => void stop('SIGTERM'))
 }
 
+/**
+ * An error nothing caught leaves the process in a state no one planned for: log it, finish the
+ * requests in flight as at SIGTERM, and exit non-zero so that the supervisor starts a new one.
+ */
+export function stopOnUncaughtErrors(serving: Serving) {
+  const fail = (what: string) => (err: unknown) => {
+    serving.logger.fatal({ err }, `${what}: shutting down`)
+    // close() gives requests 10 s; should it hang on something else, exit anyway.
+    setTimeout(() => process.exit(1), 15_000).unref()
+    void serving.close().finally(() => process.exit(1))
+  }
+  process.on('unhandledRejection', fail('unhandled rejection'))
+  process.on('uncaughtException', fail('uncaught exception'))
+}
+
+// The production entry (`npm run serve`, compiled): every setting from the environment, nothing
+// installed, started, built or seeded here.
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   try {
     const serving = await serve(parseEnv())
-    console.log(`Twofold is serving on ${serving.url}`)
     stopOnSignals(serving)
+    stopOnUncaughtErrors(serving)
+    serving.logger.info({ url: serving.url }, `Twofold is serving on ${serving.url}`)
   } catch (err) {
     console.error(err instanceof EnvError ? err.message : err)
     process.exit(1)

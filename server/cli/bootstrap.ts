@@ -1,53 +1,52 @@
-import { fileURLToPath } from 'node:url'
 import { createDatabase } from '../db/client.ts'
 import { applyMigrations } from '../db/migrate.ts'
-import { ensureJobSchema } from '../jobs/queue.ts'
-import { backfillRecordTimelines } from '../services/progress.ts'
+import type { Env } from '../env.ts'
 import { seedDemoIfEmpty } from '../../seed/demo.ts'
-import {
-  clusterUrl,
-  ensureDatabase,
-  initCluster,
-  localDataDir,
-  startCluster,
-  type Cluster,
-} from './postgres.ts'
+import type { LocalDatabase } from './local-database.ts'
 
-export const projectDir = fileURLToPath(new URL('../..', import.meta.url))
-
-export interface LocalDatabase {
-  url: string
-  /** The cluster this process started, to stop on the way out; absent with DATABASE_URL or
-   * when the cluster was already running (another `npm start` may be using it). */
-  cluster?: Cluster
-}
+export { projectDir } from '../paths.ts'
+export { localDatabase, type LocalDatabase } from './local-database.ts'
 
 /**
- * The database of `npm start` and `npm run dev`: DATABASE_URL when set, else the project-local
- * cluster, created on first use and started when not running.
- */
-export async function localDatabase(databaseUrl: string | undefined): Promise<LocalDatabase> {
-  if (databaseUrl) return { url: databaseUrl }
-  const cluster = await initCluster(localDataDir(projectDir))
-  const started = startCluster(cluster)
-  await ensureDatabase(cluster, 'twofold')
-  return { url: clusterUrl(cluster, 'twofold'), cluster: started ? cluster : undefined }
-}
-
-/**
- * Applies migrations, fills in data that a migration added a place for, and loads the demo club
- * into an empty database. Safe to run every start.
+ * Applies migrations (with the data they added a place for) and, unless `seed` is false, loads
+ * the demo club into an empty database. Safe to run every start.
  */
 export async function prepareDatabase(url: string, options: { seed?: boolean; today?: Date } = {}) {
   const database = createDatabase(url)
   try {
     await applyMigrations(database.db)
-    await ensureJobSchema(url)
-    await backfillRecordTimelines(database.db)
     return options.seed === false
       ? null
       : await seedDemoIfEmpty(database.db, { today: options.today })
   } finally {
     await database.close()
   }
+}
+
+export type DemoPreparation =
+  | { seeded: Awaited<ReturnType<typeof seedDemoIfEmpty>>; refused?: undefined }
+  | { seeded: null; refused: string }
+
+/**
+ * The database step of `npm start` and `npm run dev`. The demo club is loaded into the
+ * project-local cluster when it is empty; into a DATABASE_URL database only when the person
+ * asks with TWOFOLD_DEMO_SEED=yes, since every demo account has the password printed in the
+ * README and that database may be a real one.
+ */
+export async function prepareLocalDatabase(
+  local: LocalDatabase,
+  env: Pick<Env, 'TWOFOLD_DEMO_SEED'>,
+  options: { today?: Date } = {},
+): Promise<DemoPreparation> {
+  if (local.external && !env.TWOFOLD_DEMO_SEED) {
+    await prepareDatabase(local.url, { seed: false })
+    return {
+      seeded: null,
+      refused:
+        'DATABASE_URL names a database of your own, so the demo club was not loaded into it: ' +
+        'its accounts share the password printed in the README. To load it into an empty ' +
+        'database anyway, start with TWOFOLD_DEMO_SEED=yes.',
+    }
+  }
+  return { seeded: await prepareDatabase(local.url, options) }
 }

@@ -1,7 +1,7 @@
 import { createServer } from 'vite'
 import { EnvError, parseEnv } from '../env.ts'
 import { serve, stopOnSignals } from '../index.ts'
-import { localDatabase, prepareDatabase, projectDir } from './bootstrap.ts'
+import { localDatabase, prepareLocalDatabase, projectDir } from './bootstrap.ts'
 import { printDemoSignIns } from './demo-sign-ins.ts'
 import { PostgresSetupError, stopCluster } from './postgres.ts'
 
@@ -10,7 +10,8 @@ import { PostgresSetupError, stopCluster } from './postgres.ts'
 try {
   const env = parseEnv()
   const local = await localDatabase(env.DATABASE_URL)
-  await prepareDatabase(local.url)
+  const { refused } = await prepareLocalDatabase(local, env)
+  if (refused) console.log(refused)
   // People open Vite's address, so links in mail point there, not at the API's own port.
   const publicUrl = env.PUBLIC_URL ?? `http://127.0.0.1:${Number(process.env.VITE_PORT ?? 5173)}`
   const api = await serve(
@@ -23,7 +24,7 @@ try {
   vite.printUrls()
   console.log(`API on ${api.url}`)
   if (api.mailViewerUrl) console.log(`Local mail viewer on ${api.mailViewerUrl}`)
-  printDemoSignIns()
+  if (!refused) printDemoSignIns()
   stopOnSignals(api, async () => {
     await vite.close()
     if (local.cluster) stopCluster(local.cluster)

@@ -1,8 +1,9 @@
-import { spawnSync } from 'node:child_process'
+import { spawn, spawnSync } from 'node:child_process'
 import { join } from 'node:path'
 import { EnvError, parseEnv } from '../env.ts'
 import { serve, stopOnSignals } from '../index.ts'
-import { localDatabase, prepareDatabase, projectDir } from './bootstrap.ts'
+import { localDatabase, prepareLocalDatabase, projectDir } from './bootstrap.ts'
+import { checkClientBuild } from './client-build.ts'
 import { printDemoSignIns } from './demo-sign-ins.ts'
 import { PostgresSetupError, stopCluster, type Cluster } from './postgres.ts'
 
@@ -14,25 +15,41 @@ try {
   const local = await localDatabase(env.DATABASE_URL)
   startedCluster = local.cluster
   console.log('2/4 Migrations and demo club…')
-  const seeded = await prepareDatabase(local.url)
+  const { seeded, refused } = await prepareLocalDatabase(local, env)
   console.log(
     seeded
       ? `    loaded the demo club "${seeded.club.name}" (${seeded.squads} squads, ${seeded.athletes} athletes, ${seeded.audits} published quarterly audits)`
-      : '    data kept from the last run',
+      : `    ${refused ?? 'data kept from the last run'}`,
   )
-  console.log('3/4 Building the client…')
-  const build = spawnSync(
-    join(projectDir, 'node_modules/.bin/vite'),
-    ['build', '--logLevel', 'warn'],
-    {
-      cwd: projectDir,
-      stdio: 'inherit',
-    },
-  )
-  if (build.status !== 0) throw new Error('vite build failed: see the messages above.')
+  const client = checkClientBuild(projectDir)
+  console.log(`3/4 Client: ${client.reason}${client.build ? ': building it…' : ''}`)
+  if (client.build) {
+    const build = spawnSync(
+      join(projectDir, 'node_modules/.bin/vite'),
+      ['build', '--logLevel', 'warn'],
+      { cwd: projectDir, stdio: 'inherit' },
+    )
+    if (build.status !== 0) throw new Error('vite build failed: see the messages above.')
+  }
   console.log('4/4 Serving…')
   // The demo: local database and local fake mail, never production mode.
   const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'development' })
+  // Audits and mail are done by a worker process of their own, as in production, sending mail
+  // through the local fake mail server of the web process.
+  const worker = spawn(
+    process.execPath,
+    ['--import', 'tsx', join(projectDir, 'server/worker.ts')],
+    {
+      cwd: projectDir,
+      stdio: 'inherit',
+      env: {
+        ...process.env,
+        NODE_ENV: 'development',
+        DATABASE_URL: local.url,
+        ...(serving.fakeSmtpUrl ? { SMTP_URL: serving.fakeSmtpUrl } : {}),
+      },
+    },
+  )
   console.log(`\nTwofold is running at ${serving.url}  (Ctrl-C stops it)`)
   if (serving.mailViewerUrl) {
     console.log(
@@ -40,8 +57,12 @@ try {
     )
   }
   console.log()
-  printDemoSignIns()
-  stopOnSignals(serving, () => {
+  if (!refused) printDemoSignIns()
+  stopOnSignals(serving, async () => {
+    if (worker.exitCode === null) {
+      worker.kill('SIGTERM')
+      await new Promise((resolve) => worker.once('exit', resolve))
+    }
     if (local.cluster) {
       console.log('Stopping PostgreSQL…')
       stopCluster(local.cluster)

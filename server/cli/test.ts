@@ -5,7 +5,7 @@ import { join } from 'node:path'
 import { projectDir } from './bootstrap.ts'
 import { findPostgresBin, freePort } from './postgres.ts'
 
-// `npm test`: type-check, lint, the vitest projects, a production build and the browser tests,
+// `npm test`: type-check, lint, the vitest projects, the production build and the browser tests,
 // then one closing line `N passed, N failed` summed over all of them. Every runner that needs a
 // database starts a throwaway cluster of its own; the `npm start` data is never touched.
 
@@ -93,11 +93,16 @@ await check('format (prettier --check)', bin('prettier'), ['--check', '.'])
   results.push({ name: 'vitest', passed, failed, seconds: (Date.now() - start) / 1000 })
 }
 
-const built = await check('production build (vite build)', bin('vite'), [
+// The production build, as `npm run build` makes it: the client into dist/, the server compiled
+// into build/ (the browser tests run both, the compiled server on plain node).
+const clientBuilt = await check('client build (vite build)', bin('vite'), [
   'build',
   '--logLevel',
   'warn',
 ])
+rmSync(join(projectDir, 'build'), { recursive: true, force: true })
+const serverBuilt = await check('server build (tsc)', bin('tsc'), ['-p', 'tsconfig.server.json'])
+const built = clientBuilt && serverBuilt
 
 {
   const start = Date.now()

@@ -92,10 +92,9 @@ export type JobQueue = ReturnType<typeof createJobQueue>
  * Installs or updates pg-boss's own tables (schema `pgboss`) and Twofold's queues. Part of the
  * migration step: web and worker processes only check that they are there.
  */
-export async function ensureJobSchema(connectionString: string, settings = defaultJobSettings) {
+export async function ensureJobSchema(db: PgBoss.Db, settings = defaultJobSettings) {
   const boss = new PgBoss({
-    connectionString,
-    max: 2,
+    db,
     migrate: true,
     supervise: false,
     schedule: false,

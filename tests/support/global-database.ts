@@ -1,7 +1,6 @@
 import type { TestProject } from 'vitest/node'
 import { createDatabase } from '../../server/db/client.ts'
 import { applyMigrations } from '../../server/db/migrate.ts'
-import { ensureJobSchema } from '../../server/jobs/queue.ts'
 import {
   clusterUrl,
   ensureDatabase,
@@ -30,7 +29,6 @@ export default async function setup(project: TestProject) {
   const database = createDatabase(clusterUrl(cluster, templateDatabase))
   try {
     await applyMigrations(database.db)
-    await ensureJobSchema(clusterUrl(cluster, templateDatabase))
   } finally {
     await database.close()
   }
