@@ -14,7 +14,14 @@ import { hashToken, newToken } from '../auth/tokens.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { clubs, coachSquads, invitations, memberships, users } from '../db/schema.ts'
+import {
+  clubs,
+  coachSquads,
+  invitations,
+  invitationTokens,
+  memberships,
+  users,
+} from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { assertStrongPassword, findUserByEmail } from './accounts.ts'
 
@@ -256,18 +263,27 @@ export async function createInvitation(
     )
   }
   const token = newToken()
-  const [row] = await ctx.db
-    .insert(invitations)
-    .values({
-      clubId: access.clubId,
-      email: input.email,
-      role: input.role,
-      ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
+  const expiresAt = new Date(Date.now() + invitationLifetimeMs)
+  const row = await ctx.db.transaction(async (tx) => {
+    const [created] = await tx
+      .insert(invitations)
+      .values({
+        clubId: access.clubId,
+        email: input.email,
+        role: input.role,
+        ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
+        expiresAt,
+        invitedBy: access.userId,
+      })
+      .returning()
+    await tx.insert(invitationTokens).values({
       tokenHash: hashToken(token),
-      expiresAt: new Date(Date.now() + invitationLifetimeMs),
-      invitedBy: access.userId,
+      clubId: access.clubId,
+      invitationId: created!.id,
+      expiresAt,
     })
-    .returning()
+    return created
+  })
   await sendInvitation(ctx, row!, token, origin)
   return (await listInvitations(ctx.db, access.clubId)).find((i) => i.id === row!.id)!
 }
@@ -297,19 +313,38 @@ export async function resendInvitation(
 ) {
   const row = await openInvitation(ctx.db, access.clubId, id)
   const token = newToken()
-  await ctx.db
-    .update(invitations)
-    .set({ tokenHash: hashToken(token), expiresAt: new Date(Date.now() + invitationLifetimeMs) })
-    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+  const expiresAt = new Date(Date.now() + invitationLifetimeMs)
+  await ctx.db.transaction(async (tx) => {
+    await tx
+      .update(invitations)
+      .set({ expiresAt })
+      .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+    await deleteLink(tx, access.clubId, id)
+    await tx
+      .insert(invitationTokens)
+      .values({ tokenHash: hashToken(token), clubId: access.clubId, invitationId: id, expiresAt })
+  })
   await sendInvitation(ctx, row, token, origin)
+}
+
+/** Deletes the link of an invitation: it never works again. */
+function deleteLink(db: DbOrTx, clubId: string, invitationId: string) {
+  return db
+    .delete(invitationTokens)
+    .where(
+      and(eq(invitationTokens.clubId, clubId), eq(invitationTokens.invitationId, invitationId)),
+    )
 }
 
 export async function withdrawInvitation(ctx: AppContext, access: ClubAccess, id: string) {
   await openInvitation(ctx.db, access.clubId, id)
-  await ctx.db
-    .update(invitations)
-    .set({ withdrawnAt: new Date() })
-    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+  await ctx.db.transaction(async (tx) => {
+    await tx
+      .update(invitations)
+      .set({ withdrawnAt: new Date() })
+      .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+    await deleteLink(tx, access.clubId, id)
+  })
 }
 
 const invalidInvitation = () =>
@@ -319,17 +354,30 @@ const invalidInvitation = () =>
     'This invitation has expired, was withdrawn or was already used. Ask the club for a new one.',
   )
 
+/**
+ * The open invitation a link belongs to. The link is found by its hash alone, which gives the
+ * club; the invitation is then read within that club.
+ */
 async function usableInvitation(db: DbOrTx, token: string) {
+  const now = new Date()
+  const [link] = await db
+    .select({ clubId: invitationTokens.clubId, invitationId: invitationTokens.invitationId })
+    .from(invitationTokens)
+    .where(
+      and(eq(invitationTokens.tokenHash, hashToken(token)), gt(invitationTokens.expiresAt, now)),
+    )
+  if (!link) throw invalidInvitation()
   const [row] = await db
     .select({ invitation: invitations, clubName: clubs.name })
     .from(invitations)
     .innerJoin(clubs, eq(clubs.id, invitations.clubId))
     .where(
       and(
-        eq(invitations.tokenHash, hashToken(token)),
+        eq(invitations.clubId, link.clubId),
+        eq(invitations.id, link.invitationId),
         isNull(invitations.acceptedAt),
         isNull(invitations.withdrawnAt),
-        gt(invitations.expiresAt, new Date()),
+        gt(invitations.expiresAt, now),
       ),
     )
   if (!row) throw invalidInvitation()
@@ -396,6 +444,7 @@ export async function acceptInvitation(
       )
       .returning()
     if (spent.length === 0) throw invalidInvitation()
+    await deleteLink(tx, invitation.clubId, invitation.id)
     const user =
       existing ??
       (
