@@ -13,6 +13,7 @@ import {
   type AuditResult,
 } from '../../shared/domain/audit.ts'
 import type { Discipline } from '../../shared/domain/club.ts'
+import { athleteFullName, erasedAthleteLabel } from '../../shared/domain/erasure.ts'
 import { quarterEnd } from '../../shared/domain/quarters.ts'
 import type {
   AuditReport,
@@ -304,10 +305,22 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
         clubFrontLag: r.figures.headline.clubFrontLag,
         balanceRatio: r.figures.headline.balanceRatio,
       })),
-    athleteNames: Object.fromEntries(people.map((p) => [p.id, `${p.givenName} ${p.familyName}`])),
+    athleteNames: namesOrErased(ids, people),
     squadNames: names,
     limitedToSquads: readable !== 'all',
   }
+}
+
+/**
+ * The name of each athlete a report lists. One it lists but the club no longer has was erased
+ * for good: the report keeps the row and its figures under a neutral label.
+ */
+function namesOrErased(
+  ids: string[],
+  people: { id: string; givenName: string; familyName: string }[],
+): Record<string, string> {
+  const names = new Map(people.map((p) => [p.id, athleteFullName(p)]))
+  return Object.fromEntries(ids.map((id) => [id, names.get(id) ?? erasedAthleteLabel]))
 }
 
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
