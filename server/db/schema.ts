@@ -454,7 +454,8 @@ export const progressRecords = pgTable(
 
 /**
  * A stored audit: the result of shared/domain/audit.ts over the club's data as of a date,
- * never changed after it is written (publishing only stamps it), with the hash of its inputs.
+ * never changed after it is written (publishing only stamps it, and erasing an athlete for good
+ * replaces their id in it), with the hash of its inputs.
  */
 export const audits = pgTable(
   'audits',

@@ -152,7 +152,10 @@ export async function checkRun(db: DbOrTx, access: ClubAccess, run: AuditRun): P
 
 export type ProgressListener = (progress: { phase: string; done: number; total: number }) => void
 
-/** Runs and stores one audit; the stored row is never changed afterwards. */
+/**
+ * Runs and stores one audit; the stored row is never changed afterwards, but for the id of an
+ * athlete erased for good (see erasure.ts).
+ */
 export async function runAndStore(
   db: DbOrTx,
   access: ClubAccess,
