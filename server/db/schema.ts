@@ -35,7 +35,11 @@ import {
 } from '../../shared/domain/progress.ts'
 
 // Every table of club data carries club_id and puts it first in its keys and foreign keys, so
-// that rows of one club can never point at another club's rows.
+// that rows of one club can never point at another club's rows, and so that the club tables can
+// later be distributed by club_id with every key and join staying on one node. Tables looked up
+// without knowing the club (clubs, users, sessions, password_resets, invitation_tokens,
+// rate_limits) are the reference side. tests/server/schema-distribution.test.ts holds the live
+// database to that; README "Beyond one database" gives the plan.
 
 export const roleEnum = pgEnum('role', roles)
 export const disciplineEnum = pgEnum('discipline', disciplines)
@@ -176,8 +180,6 @@ export const invitations = pgTable(
     role: roleEnum().notNull(),
     accessStartsOn: date(),
     accessEndsOn: date(),
-    /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
-    tokenHash: text().notNull().unique(),
     expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
     invitedBy: text().references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
@@ -185,6 +187,35 @@ export const invitations = pgTable(
     withdrawnAt: timestamp({ withTimezone: true, mode: 'date' }),
   },
   (t) => [primaryKey({ columns: [t.clubId, t.id] })],
+)
+
+/**
+ * The link of an open invitation, looked up by its token without knowing the club: kept apart
+ * from the club's invitations so that the lookup never has to search every club. One row per
+ * open invitation; resending replaces it, accepting or withdrawing deletes it.
+ */
+export const invitationTokens = pgTable(
+  'invitation_tokens',
+  {
+    /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
+    tokenHash: text().primaryKey(),
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    invitationId: uuid().notNull(),
+    /** The invitation's expiry when the link was sent. */
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('invitation_tokens_invitation_idx').on(t.clubId, t.invitationId),
+    // The one foreign key from the reference side into club data: a distributed database cannot
+    // keep it, so the services delete the row with its invitation themselves (see README).
+    foreignKey({
+      columns: [t.clubId, t.invitationId],
+      foreignColumns: [invitations.clubId, invitations.id],
+    }).onDelete('cascade'),
+  ],
 )
 
 export const passwordResets = pgTable(
@@ -323,8 +354,9 @@ export const progressionTemplates = pgTable(
 )
 
 /**
- * The append-only history of an athlete's progress on an element. Nothing here is updated or
- * deleted by the application: a mistaken event is voided by a later one (corrects_event_id).
+ * The append-only history of an athlete's progress on an element. Nothing here is updated, and
+ * nothing deleted but with the athlete erased for good: a mistaken event is voided by a later one
+ * (corrects_event_id).
  */
 export const progressEvents = pgTable(
   'progress_events',
@@ -359,8 +391,16 @@ export const progressEvents = pgTable(
       columns: [t.clubId, t.elementId],
       foreignColumns: [elements.clubId, elements.id],
     }),
+    foreignKey({
+      columns: [t.clubId, t.correctsEventId],
+      foreignColumns: [t.clubId, t.id],
+    }),
     index('progress_events_record_idx').on(t.clubId, t.athleteId, t.elementId),
     index('progress_events_element_idx').on(t.clubId, t.elementId),
+    // Deleting events (erasing an athlete) checks that no correction still points at them.
+    index('progress_events_corrects_idx')
+      .on(t.clubId, t.correctsEventId)
+      .where(sql`${t.correctsEventId} is not null`),
   ],
 )
 
@@ -403,13 +443,20 @@ export const progressRecords = pgTable(
       columns: [t.clubId, t.elementId],
       foreignColumns: [elements.clubId, elements.id],
     }),
+    foreignKey({
+      columns: [t.clubId, t.lastEventId],
+      foreignColumns: [progressEvents.clubId, progressEvents.id],
+    }),
     index('progress_records_element_idx').on(t.clubId, t.elementId),
+    // Deleting events (erasing an athlete) checks that no record still names them.
+    index('progress_records_last_event_idx').on(t.clubId, t.lastEventId),
   ],
 )
 
 /**
  * A stored audit: the result of shared/domain/audit.ts over the club's data as of a date,
- * never changed after it is written (publishing only stamps it), with the hash of its inputs.
+ * never changed after it is written (publishing only stamps it, and erasing an athlete for good
+ * replaces their id in it), with the hash of its inputs.
  */
 export const audits = pgTable(
   'audits',
@@ -512,7 +559,10 @@ export const auditRuns = pgTable(
     createdAt: createdAt(),
     finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
   },
-  (t) => [primaryKey({ columns: [t.clubId, t.id] })],
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    foreignKey({ columns: [t.clubId, t.auditId], foreignColumns: [audits.clubId, audits.id] }),
+  ],
 )
 
 /**

@@ -11,6 +11,7 @@ import {
   listAthletes,
   updateAthlete,
 } from '../services/athletes.ts'
+import { eraseAthlete } from '../services/erasure.ts'
 import {
   athleteRecords,
   missingSkills,
@@ -25,7 +26,10 @@ const recordParams = athleteParams.extend({ elementId: z.uuid('No such element.'
 const readers = ['director', 'coach', 'clinician'] as const
 const writers = ['director', 'coach'] as const
 
-/** Athletes, the roster CSV, progress events and records, and the coaches' missing-skills list. */
+/**
+ * Athletes (erasing one for good), the roster CSV, progress events and records, and the coaches'
+ * missing-skills list.
+ */
 export function athleteRoutes(ctx: AppContext): ClubRoute[] {
   return [
     {
@@ -81,6 +85,15 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
             req.body,
           ),
         ),
+    },
+    {
+      method: 'post',
+      path: '/athletes/:athleteId/erase',
+      allow: ['director'],
+      handler: async (req, res) => {
+        await eraseAthlete(ctx.db, req.club, athleteParams.parse(req.params).athleteId, req.body)
+        res.status(204).end()
+      },
     },
     {
       method: 'get',

@@ -2,11 +2,12 @@ import { eq } from 'drizzle-orm'
 import { clubSettingsSchema } from '../../shared/schemas/clubs.ts'
 import type { AppContext } from '../context.ts'
 import { clubs } from '../db/schema.ts'
+import { deleteClub } from '../services/erasure.ts'
 import { everyRole, type ClubRoute } from './club-routes.ts'
 
 const clubView = { id: clubs.id, name: clubs.name, lostSkillStepDown: clubs.lostSkillStepDown }
 
-/** The club itself and its settings. */
+/** The club itself, its settings, and deleting it for good. */
 export function clubRoutes(ctx: AppContext): ClubRoute[] {
   return [
     {
@@ -33,6 +34,15 @@ export function clubRoutes(ctx: AppContext): ClubRoute[] {
           .where(eq(clubs.id, req.club.clubId))
           .returning(clubView)
         res.json({ ...club, role: req.club.role })
+      },
+    },
+    {
+      method: 'delete',
+      path: '/',
+      allow: ['director'],
+      handler: async (req, res) => {
+        await deleteClub(ctx.db, req.club, req.body)
+        res.status(204).end()
       },
     },
   ]

@@ -13,6 +13,7 @@ import {
   type AuditResult,
 } from '../../shared/domain/audit.ts'
 import type { Discipline } from '../../shared/domain/club.ts'
+import { athleteFullName, erasedAthleteLabel } from '../../shared/domain/erasure.ts'
 import { quarterEnd } from '../../shared/domain/quarters.ts'
 import type {
   AuditReport,
@@ -151,8 +152,10 @@ export async function checkRun(db: DbOrTx, access: ClubAccess, run: AuditRun): P
 
 export type ProgressListener = (progress: { phase: string; done: number; total: number }) => void
 
-/** Runs and stores one audit; the stored row is never changed afterwards. */
-/** What `computeAudit` produces: the row to store for the run. */
+/**
+ * What `computeAudit` produces: the row to store for the run. A stored row is never changed
+ * afterwards, but for the id of an athlete erased for good (see erasure.ts).
+ */
 export type ComputedAudit = typeof audits.$inferInsert
 
 /** Reads the inputs of a run and computes its result: the audit row to store, not yet stored. */
@@ -316,10 +319,22 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
         clubFrontLag: r.figures.headline.clubFrontLag,
         balanceRatio: r.figures.headline.balanceRatio,
       })),
-    athleteNames: Object.fromEntries(people.map((p) => [p.id, `${p.givenName} ${p.familyName}`])),
+    athleteNames: namesOrErased(ids, people),
     squadNames: names,
     limitedToSquads: readable !== 'all',
   }
+}
+
+/**
+ * The name of each athlete a report lists. One it lists but the club no longer has was erased
+ * for good: the report keeps the row and its figures under a neutral label.
+ */
+function namesOrErased(
+  ids: string[],
+  people: { id: string; givenName: string; familyName: string }[],
+): Record<string, string> {
+  const names = new Map(people.map((p) => [p.id, athleteFullName(p)]))
+  return Object.fromEntries(ids.map((id) => [id, names.get(id) ?? erasedAthleteLabel]))
 }
 
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */

@@ -14,7 +14,14 @@ import { hashToken, newToken } from '../auth/tokens.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { clubs, coachSquads, invitations, memberships, users } from '../db/schema.ts'
+import {
+  clubs,
+  coachSquads,
+  invitations,
+  invitationTokens,
+  memberships,
+  users,
+} from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
 import { assertStrongPassword, findUserByEmail } from './accounts.ts'
@@ -259,6 +266,7 @@ export async function createInvitation(
     )
   }
   const token = newToken()
+  const expiresAt = new Date(Date.now() + invitationLifetimeMs)
   const row = await ctx.db.transaction(async (tx) => {
     const [created] = await tx
       .insert(invitations)
@@ -267,11 +275,16 @@ export async function createInvitation(
         email: input.email,
         role: input.role,
         ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
-        tokenHash: hashToken(token),
-        expiresAt: new Date(Date.now() + invitationLifetimeMs),
+        expiresAt,
         invitedBy: access.userId,
       })
       .returning()
+    await tx.insert(invitationTokens).values({
+      tokenHash: hashToken(token),
+      clubId: access.clubId,
+      invitationId: created!.id,
+      expiresAt,
+    })
     await sendInvitation(ctx, tx, created!, token, origin)
     return created!
   })
@@ -302,22 +315,39 @@ export async function resendInvitation(
   origin: string,
 ) {
   const token = newToken()
+  const expiresAt = new Date(Date.now() + invitationLifetimeMs)
   await ctx.db.transaction(async (tx) => {
     const row = await openInvitation(tx, access.clubId, id)
     await tx
       .update(invitations)
-      .set({ tokenHash: hashToken(token), expiresAt: new Date(Date.now() + invitationLifetimeMs) })
+      .set({ expiresAt })
       .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+    await deleteLink(tx, access.clubId, id)
+    await tx
+      .insert(invitationTokens)
+      .values({ tokenHash: hashToken(token), clubId: access.clubId, invitationId: id, expiresAt })
     await sendInvitation(ctx, tx, row, token, origin)
   })
 }
 
+/** Deletes the link of an invitation: it never works again. */
+function deleteLink(db: DbOrTx, clubId: string, invitationId: string) {
+  return db
+    .delete(invitationTokens)
+    .where(
+      and(eq(invitationTokens.clubId, clubId), eq(invitationTokens.invitationId, invitationId)),
+    )
+}
+
 export async function withdrawInvitation(ctx: AppContext, access: ClubAccess, id: string) {
   await openInvitation(ctx.db, access.clubId, id)
-  await ctx.db
-    .update(invitations)
-    .set({ withdrawnAt: new Date() })
-    .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+  await ctx.db.transaction(async (tx) => {
+    await tx
+      .update(invitations)
+      .set({ withdrawnAt: new Date() })
+      .where(and(eq(invitations.clubId, access.clubId), eq(invitations.id, id)))
+    await deleteLink(tx, access.clubId, id)
+  })
 }
 
 const invalidInvitation = () =>
@@ -327,17 +357,30 @@ const invalidInvitation = () =>
     'This invitation has expired, was withdrawn or was already used. Ask the club for a new one.',
   )
 
+/**
+ * The open invitation a link belongs to. The link is found by its hash alone, which gives the
+ * club; the invitation is then read within that club.
+ */
 async function usableInvitation(db: DbOrTx, token: string) {
+  const now = new Date()
+  const [link] = await db
+    .select({ clubId: invitationTokens.clubId, invitationId: invitationTokens.invitationId })
+    .from(invitationTokens)
+    .where(
+      and(eq(invitationTokens.tokenHash, hashToken(token)), gt(invitationTokens.expiresAt, now)),
+    )
+  if (!link) throw invalidInvitation()
   const [row] = await db
     .select({ invitation: invitations, clubName: clubs.name })
     .from(invitations)
     .innerJoin(clubs, eq(clubs.id, invitations.clubId))
     .where(
       and(
-        eq(invitations.tokenHash, hashToken(token)),
+        eq(invitations.clubId, link.clubId),
+        eq(invitations.id, link.invitationId),
         isNull(invitations.acceptedAt),
         isNull(invitations.withdrawnAt),
-        gt(invitations.expiresAt, new Date()),
+        gt(invitations.expiresAt, now),
       ),
     )
   if (!row) throw invalidInvitation()
@@ -404,6 +447,7 @@ export async function acceptInvitation(
       )
       .returning()
     if (spent.length === 0) throw invalidInvitation()
+    await deleteLink(tx, invitation.clubId, invitation.id)
     const user =
       existing ??
       (

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { roles } from '../domain/club.ts'
 import { text } from './text.ts'
 
 export const clubInputSchema = z.object({
@@ -19,3 +20,12 @@ export const clubSettingsSchema = z.object({
     .max(10, 'Use at most 10 steps.'),
 })
 export type ClubSettings = z.infer<typeof clubSettingsSchema>
+
+/** GET /api/clubs/:clubId: the club and the person's role in it. */
+export const clubViewSchema = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  lostSkillStepDown: z.number().int(),
+  role: z.enum(roles),
+})
+export type ClubView = z.infer<typeof clubViewSchema>

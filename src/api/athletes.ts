@@ -1,5 +1,6 @@
 import type { AthleteInput, AthleteUpdate, AthleteView } from '@shared/schemas/athletes'
 import type { ImportResult } from '@shared/schemas/catalogue'
+import type { AthleteErasure } from '@shared/schemas/erasure'
 import { request } from './http'
 
 const club = (clubId: string) => `/clubs/${clubId}`
@@ -20,6 +21,10 @@ export const addAthlete = (clubId: string, input: AthleteInput) =>
   request<AthleteView>(`${club(clubId)}/athletes`, { method: 'POST', body: input })
 export const updateAthlete = (clubId: string, athleteId: string, update: AthleteUpdate) =>
   request<AthleteView>(`${club(clubId)}/athletes/${athleteId}`, { method: 'PATCH', body: update })
+
+/** Erases the athlete for good (directors): their history, records and name in reports. */
+export const eraseAthlete = (clubId: string, athleteId: string, input: AthleteErasure) =>
+  request<void>(`${club(clubId)}/athletes/${athleteId}/erase`, { method: 'POST', body: input })
 
 export const importRoster = (clubId: string, rows: Record<string, unknown>[], dryRun: boolean) =>
   request<ImportResult>(`${club(clubId)}/athletes/import`, {

@@ -54,6 +54,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Members', roles: ['director'] },
   },
   {
+    path: '/club',
+    name: 'club-settings',
+    component: () => import('@/views/ClubSettingsView.vue'),
+    meta: { title: 'Club', roles: ['director'] },
+  },
+  {
     path: '/catalogue',
     name: 'catalogue',
     component: () => import('@/views/CatalogueView.vue'),

@@ -23,6 +23,7 @@ export function navigationItems(me: Me | null, membership: MembershipView | null
   items.push(...progressNavItems(membership.role), ...auditNavItems(membership.role))
   if (membership.role === 'director') {
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
+    items.push({ key: 'club-settings', label: 'Club', to: { name: 'club-settings' } })
   }
   return items
 }

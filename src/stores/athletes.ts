@@ -56,6 +56,15 @@ export const useAthletesStore = defineStore('athletes', () => {
     return updated
   }
 
+  /**
+   * Erases an athlete for good once their full name is typed; the roster drops them. Lets the
+   * ApiError through (a field issue on `confirmName` when the name does not match).
+   */
+  async function erase(clubId: string, athleteId: string, confirmName: string) {
+    await api.eraseAthlete(clubId, athleteId, { confirmName })
+    roster.value = roster.value.filter((a) => a.id !== athleteId)
+  }
+
   /** Checks (`dryRun`) or imports roster rows; all or nothing on the server. */
   async function importRows(clubId: string, rows: Record<string, unknown>[], dryRun: boolean) {
     return api.importRoster(clubId, rows, dryRun)
@@ -71,6 +80,7 @@ export const useAthletesStore = defineStore('athletes', () => {
     get,
     add,
     update,
+    erase,
     importRows,
   }
 })

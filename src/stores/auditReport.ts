@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import type { GapEntry } from '@shared/domain/audit'
+import { erasedAthleteLabel } from '@shared/domain/erasure'
 import type { AuditReport } from '@shared/schemas/audits'
 import * as api from '@/api/audits'
 import type { AuditRecheck } from '@/api/audits'
@@ -26,7 +27,8 @@ export const useAuditReportStore = defineStore('auditReport', () => {
     (report.value?.result.gaps ?? []).map((gap, i) => ({ ...gap, rank: i + 1 })),
   )
 
-  const athleteName = (id: string) => report.value?.athleteNames[id] ?? 'Athlete'
+  // The server names every athlete a report lists; one erased for good comes under this label.
+  const athleteName = (id: string) => report.value?.athleteNames[id] ?? erasedAthleteLabel
   const squadName = (id: string) => report.value?.squadNames[id] ?? 'Squad'
 
   /** Loads the report; the error is kept for the view to show. */

@@ -8,11 +8,12 @@ import type { Database } from '../../server/db/client.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { createProfile, runAndStore } from '../../server/services/audits.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
+import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
+import { addDays, clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
 
 // Every route under /api/clubs/:clubId, with who may use it and what a permitted request gets.
 // A route added to the server without a row here fails the first test; a row here without a
@@ -26,7 +27,8 @@ type Fixture = Awaited<ReturnType<typeof clubWithPeople>> & {
 interface Row {
   allow: Role[]
   ok: number
-  request: (f: Fixture) => Promise<{ path: string; body?: unknown }>
+  /** The request; `clubId` when it acts on a club of its own rather than the fixture's. */
+  request: (f: Fixture) => Promise<{ path: string; body?: unknown; clubId?: string }>
 }
 
 const unique = () => randomBytes(5).toString('hex')
@@ -68,6 +70,33 @@ async function athleteInSquad(f: Fixture) {
     discipline: 'artistic-women',
   })
   return a.id
+}
+async function erasableAthlete(f: Fixture) {
+  const familyName = unique()
+  const a = await createAthlete(f.db.db, f.club.id, {
+    givenName: 'Erasable',
+    familyName,
+    birthYear: 2012,
+    squadId: f.squad.id,
+    discipline: 'artistic-women',
+  })
+  return { path: `/athletes/${a.id}/erase`, body: { confirmName: `Erasable ${familyName}` } }
+}
+/** A club of its own, with the fixture's people in the same roles, for deleting. */
+async function throwawayClub(f: Fixture) {
+  const label = unique()
+  const club = await createClub(f.db.db, { name: `Throwaway ${label}`, slug: `throwaway-${label}` })
+  for (const person of Object.values(f.people)) {
+    const window =
+      person.role === 'clinician' ? { accessStartsOn: addDays(-1), accessEndsOn: addDays(1) } : {}
+    await addMembership(f.db.db, {
+      clubId: club.id,
+      userId: person.id,
+      role: person.role,
+      ...window,
+    })
+  }
+  return { path: '/', body: { confirmName: club.name }, clubId: club.id }
 }
 const stepEvent = async (f: Fixture) => ({
   elementId: await anyElement(f),
@@ -120,6 +149,7 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async () => ({ path: '/' }),
   },
+  'DELETE /': { allow: ['director'], ok: 204, request: throwawayClub },
   'PATCH /settings': {
     allow: ['director'],
     ok: 200,
@@ -312,6 +342,7 @@ const matrix: Record<string, Row> = {
       body: { givenName: 'Renamed' },
     }),
   },
+  'POST /athletes/:athleteId/erase': { allow: ['director'], ok: 204, request: erasableAthlete },
   'GET /athletes/:athleteId/records': {
     allow: readers,
     ok: 200,
@@ -491,9 +522,9 @@ describe('club API access matrix', () => {
 
   it.each(cases)('%s as %s answers %i', async (key, who, expected) => {
     const [method, path] = key.split(' ') as [string, string]
-    const { path: concrete, body } = await matrix[key]!.request(f)
+    const { path: concrete, body, clubId = f.club.id } = await matrix[key]!.request(f)
     expect(concrete.split('/').length).toBe(path.split('/').length)
-    const url = `/api/clubs/${f.club.id}${concrete === '/' ? '/' : concrete}`
+    const url = `/api/clubs/${clubId}${concrete === '/' ? '/' : concrete}`
     const agent = who === 'signed-out' ? request(t.app) : agents[who]
     const res = await send(agent, method, url, body)
     expect(res.status, JSON.stringify(res.body)).toBe(expected)

@@ -2,7 +2,8 @@ import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
-import { invitations, memberships } from '../../server/db/schema.ts'
+import { hashToken } from '../../server/auth/tokens.ts'
+import { invitations, invitationTokens, memberships } from '../../server/db/schema.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { addDays, clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
@@ -25,6 +26,13 @@ afterAll(async () => {
 
 const base = () => `/api/clubs/${fx.club.id}`
 const linkIn = (text: string) => /accept-invitation#token=([A-Za-z0-9_-]+)/.exec(text)?.[1]
+const linksOf = async (invitationId: string) =>
+  (
+    await database.db
+      .select({ tokenHash: invitationTokens.tokenHash })
+      .from(invitationTokens)
+      .where(eq(invitationTokens.invitationId, invitationId))
+  ).map((r) => r.tokenHash)
 
 describe('invitations', () => {
   it('e-mails a working link through the fake SMTP server; accepting it creates the account and signs in', async () => {
@@ -39,8 +47,14 @@ describe('invitations', () => {
     expect(token).toBeDefined()
     // at least 128 bits: 22 base64url characters carry 132
     expect(token.length).toBeGreaterThanOrEqual(22)
-    const stored = await database.db.select().from(invitations).where(eq(invitations.email, email))
-    expect(stored[0]!.tokenHash).not.toContain(token)
+    // Only the hash is stored, in the table of links, found without knowing the club.
+    const [stored] = await database.db
+      .select()
+      .from(invitations)
+      .where(eq(invitations.email, email))
+    const links = await linksOf(stored!.id)
+    expect(links).toEqual([hashToken(token)])
+    expect(links[0]).not.toContain(token)
 
     const preview = await request(t.app).post('/api/auth/invitations/preview').send({ token })
     expect(preview.status).toBe(200)
@@ -69,6 +83,8 @@ describe('invitations', () => {
       .post('/api/auth/invitations/accept')
       .send({ token, name: 'X', password: 'juniper-cobalt-sprocket-4' })
     expect(reuse.status).toBe(410)
+    // The spent link is gone.
+    expect(await linksOf(stored!.id)).toEqual([])
   })
 
   it('lets a person with an account in another club join with their own password', async () => {
@@ -151,8 +167,10 @@ describe('invitations', () => {
     expect(second).not.toBe(first)
     await request(t.app).post('/api/auth/invitations/preview').send({ token: first }).expect(410)
     await request(t.app).post('/api/auth/invitations/preview').send({ token: second }).expect(200)
+    expect(await linksOf(body.id)).toEqual([hashToken(second)])
     await director.delete(`${base()}/invitations/${body.id}`).expect(204)
     await request(t.app).post('/api/auth/invitations/preview').send({ token: second }).expect(410)
+    expect(await linksOf(body.id)).toEqual([])
   })
 
   it('expires after 7 days', async () => {

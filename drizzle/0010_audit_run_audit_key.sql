@@ -1,0 +1,1 @@
+ALTER TABLE "audit_runs" ADD CONSTRAINT "audit_runs_club_id_audit_id_audits_club_id_id_fk" FOREIGN KEY ("club_id","audit_id") REFERENCES "public"."audits"("club_id","id") ON DELETE no action ON UPDATE no action;

@@ -1,0 +1,125 @@
+import { randomUUID } from 'node:crypto'
+import { and, eq, sql } from 'drizzle-orm'
+import {
+  athleteFullName,
+  confirmationMatches,
+  replaceAthleteId,
+} from '../../shared/domain/erasure.ts'
+import { athleteErasureSchema, clubDeletionSchema } from '../../shared/schemas/erasure.ts'
+import type { ClubAccess } from '../auth/club-access.ts'
+import type { DbOrTx, Tx } from '../db/client.ts'
+import {
+  ageThresholds,
+  athletes,
+  auditRuns,
+  audits,
+  clubs,
+  coachSquads,
+  elementPrerequisites,
+  elementStepMaps,
+  elementSteps,
+  elements,
+  invitationTokens,
+  invitations,
+  memberships,
+  progressEvents,
+  progressRecords,
+  progressionTemplates,
+  requirementProfiles,
+  sessions,
+  squads,
+} from '../db/schema.ts'
+import { AppError, notFound } from '../http/errors.ts'
+
+const mismatch = (message: string) =>
+  new AppError(400, 'confirmation_mismatch', message, [{ path: 'confirmName', message }])
+
+/**
+ * Erases an athlete for good, in one transaction: their progress history and records, then the
+ * athlete. Stored audits keep their figures; where they listed the athlete, the athlete's id is
+ * replaced by a new one that nothing else holds, and reports show no name for it.
+ */
+export async function eraseAthlete(
+  db: DbOrTx,
+  access: ClubAccess,
+  athleteId: string,
+  body: unknown,
+) {
+  const { confirmName } = athleteErasureSchema.parse(body)
+  await db.transaction(async (tx) => {
+    const [athlete] = await tx
+      .select()
+      .from(athletes)
+      .where(and(eq(athletes.clubId, access.clubId), eq(athletes.id, athleteId)))
+      .for('update')
+    if (!athlete) throw notFound('No such athlete.')
+    if (!confirmationMatches(confirmName, athleteFullName(athlete)))
+      throw mismatch(`Type “${athleteFullName(athlete)}” exactly to erase this athlete.`)
+    const ofAthlete = <T extends typeof progressRecords | typeof progressEvents>(table: T) =>
+      and(eq(table.clubId, access.clubId), eq(table.athleteId, athleteId))
+    // Records name their newest event: they go first, then the events, then the athlete.
+    await tx.delete(progressRecords).where(ofAthlete(progressRecords))
+    await tx.delete(progressEvents).where(ofAthlete(progressEvents))
+    await tx
+      .delete(athletes)
+      .where(and(eq(athletes.clubId, access.clubId), eq(athletes.id, athleteId)))
+    await unlinkFromAudits(tx, access.clubId, athleteId)
+  })
+}
+
+/** Gives the athlete a new id, a different one in each stored audit that lists them. */
+async function unlinkFromAudits(tx: Tx, clubId: string, athleteId: string) {
+  // The text search only narrows the rows to read; replaceAthleteId decides.
+  const rows = await tx
+    .select({ id: audits.id, result: audits.result })
+    .from(audits)
+    .where(and(eq(audits.clubId, clubId), sql`strpos(${audits.result}::text, ${athleteId}) > 0`))
+  for (const row of rows) {
+    const result = replaceAthleteId(row.result, athleteId, randomUUID())
+    if (!result) continue
+    await tx
+      .update(audits)
+      .set({ result })
+      .where(and(eq(audits.clubId, clubId), eq(audits.id, row.id)))
+  }
+}
+
+/**
+ * Deletes a club and everything it holds, in one transaction, once its name is typed exactly.
+ * Table by table within the club, children first, so that no step depends on a cascade; the
+ * people keep their accounts (and their other clubs), and their sessions forget the club.
+ */
+export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) {
+  const { confirmName } = clubDeletionSchema.parse(body)
+  const clubId = access.clubId
+  await db.transaction(async (tx) => {
+    // Locking the club row waits for writes in flight that point at it, and holds off new ones.
+    const [club] = await tx.select().from(clubs).where(eq(clubs.id, clubId)).for('update')
+    if (!club) throw notFound('No such club.')
+    if (!confirmationMatches(confirmName, club.name))
+      throw mismatch(`Type “${club.name}” exactly to delete the club.`)
+    for (const table of [
+      progressRecords,
+      progressEvents,
+      auditRuns,
+      audits,
+      athletes,
+      coachSquads,
+      squads,
+      elementPrerequisites,
+      elementStepMaps,
+      elementSteps,
+      elements,
+      progressionTemplates,
+      requirementProfiles,
+      ageThresholds,
+      invitationTokens,
+      invitations,
+      memberships,
+    ]) {
+      await tx.delete(table).where(eq(table.clubId, clubId))
+    }
+    await tx.update(sessions).set({ clubId: null }).where(eq(sessions.clubId, clubId))
+    await tx.delete(clubs).where(eq(clubs.id, clubId))
+  })
+}
