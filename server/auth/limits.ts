@@ -39,9 +39,19 @@ export const defaultResetRules: ResetRules = {
   address: { points: 3, seconds: 60 * 60 },
 }
 
+/** Club sign-up mail asked for: per client and per address, like reset requests. */
+export type SignupRules = ResetRules
+
+export const defaultSignupRules: SignupRules = {
+  client: { points: 10, seconds: 60 * 60 },
+  address: { points: 3, seconds: 60 * 60 },
+}
+
 export interface LimitRules {
   password: PasswordRules
   reset: ResetRules
+  /** Defaults to `defaultSignupRules`. */
+  signup?: SignupRules
 }
 
 /** The table the counters live in, made by the migrations; every server process shares it. */
@@ -84,15 +94,39 @@ async function count(limit: RateLimiterPostgres, key: string) {
 }
 
 /**
+ * Mail asked for by a client for an address: refused with 429 once either has asked too often
+ * in its window, else counted.
+ */
+function mailRequests(pool: pg.Pool, prefix: string, rules: ResetRules, message: string) {
+  const byClient = limiter(pool, `${prefix}-client`, rules.client)
+  const byAddress = limiter(pool, `${prefix}-address`, rules.address)
+  return async (email: string, ip: string) => {
+    const waits = await Promise.all([
+      waitFor(byClient, rules.client, digest(ip)),
+      waitFor(byAddress, rules.address, digest(email)),
+    ])
+    const wait = Math.max(...waits)
+    if (wait > 0) throw tooMany(wait, `${message} Try again in ${wait} seconds.`)
+    await Promise.all([count(byClient, digest(ip)), count(byAddress, digest(email))])
+  }
+}
+
+/**
  * Every place that checks a password goes through `checkPassword`; password-reset requests go
- * through `assertResetAllowed`. Counters live in PostgreSQL, so they hold across processes.
+ * through `assertResetAllowed`, club sign-up requests through `assertSignupAllowed`. Counters
+ * live in PostgreSQL, so they hold across processes.
  */
 export function createLimits(pool: pg.Pool, rules: LimitRules) {
   const pair = limiter(pool, 'pw-pair', rules.password.pair)
   const client = limiter(pool, 'pw-client', rules.password.client)
   const account = limiter(pool, 'pw-account', rules.password.account)
-  const resetClient = limiter(pool, 'reset-client', rules.reset.client)
-  const resetAddress = limiter(pool, 'reset-address', rules.reset.address)
+  const resetRequests = mailRequests(pool, 'reset', rules.reset, 'Too many reset requests.')
+  const signupRequests = mailRequests(
+    pool,
+    'signup',
+    rules.signup ?? defaultSignupRules,
+    'Too many sign-up requests.',
+  )
 
   const keys = (email: string, ip: string) => ({
     pair: `${digest(email)}:${digest(ip)}`,
@@ -125,17 +159,10 @@ export function createLimits(pool: pg.Pool, rules: LimitRules) {
     },
 
     /** Refuses with 429 once this client or this address asked for too many reset links. */
-    async assertResetAllowed(email: string, ip: string) {
-      const waits = await Promise.all([
-        waitFor(resetClient, rules.reset.client, digest(ip)),
-        waitFor(resetAddress, rules.reset.address, digest(email)),
-      ])
-      const wait = Math.max(...waits)
-      if (wait > 0) {
-        throw tooMany(wait, `Too many reset requests. Try again in ${wait} seconds.`)
-      }
-      await Promise.all([count(resetClient, digest(ip)), count(resetAddress, digest(email))])
-    },
+    assertResetAllowed: resetRequests,
+
+    /** Refuses with 429 once this client or this address asked for too many sign-up links. */
+    assertSignupAllowed: signupRequests,
   }
 }
 
