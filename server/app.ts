@@ -27,6 +27,7 @@ import { authRouter } from './routes/auth.ts'
 import { clubRoutesRouter, type ClubRoute } from './routes/club-routes.ts'
 import { healthRouter } from './routes/health.ts'
 import { allClubRoutes } from './routes/index.ts'
+import { signupRouter } from './routes/signup.ts'
 
 export interface AppOptions {
   env: Env
@@ -107,6 +108,7 @@ export function createApp({ env, database, logger, mailer, limits, clientDir }: 
   api.use(healthRouter(database))
   api.use(sessions.load)
   api.use('/auth', authRouter(ctx))
+  api.use('/signup', signupRouter(ctx))
   api.use('/clubs/:clubId', requireClubAccess(database.db, sessions), clubRoutesRouter(clubRoutes))
   api.use(apiNotFound)
   app.use('/api', api)

@@ -40,9 +40,19 @@ export const defaultResetRules: ResetRules = {
   address: { points: 3, seconds: 60 * 60 },
 }
 
+/** Club sign-up mail asked for: per client and per address, like reset requests. */
+export type SignupRules = ResetRules
+
+export const defaultSignupRules: SignupRules = {
+  client: { points: 10, seconds: 60 * 60 },
+  address: { points: 3, seconds: 60 * 60 },
+}
+
 export interface LimitRules {
   password: PasswordRules
   reset: ResetRules
+  /** Defaults to `defaultSignupRules`. */
+  signup?: SignupRules
 }
 
 /** The table the counters live in, made by the migrations; every server process shares it. */
@@ -103,20 +113,43 @@ export function clientKey(ip: string): string {
     .join(':')}::/64`
 }
 
+/**
+ * Mail asked for by a client for an address: refused with 429 once either has asked too often
+ * in its window. Each request counts first, atomically.
+ */
+function mailRequests(pool: pg.Pool, prefix: string, rules: ResetRules, message: string) {
+  const byClient = limiter(pool, `${prefix}-client`, rules.client)
+  const byAddress = limiter(pool, `${prefix}-address`, rules.address)
+  return async (email: string, ip: string) => {
+    const waits = await Promise.all([
+      take(byClient, digest(clientKey(ip))),
+      take(byAddress, digest(email)),
+    ])
+    const wait = Math.max(...waits)
+    if (wait > 0) throw tooMany(wait, `${message} Try again in ${wait} seconds.`)
+  }
+}
+
 /** How long a device that signed in to an account stays known to it. */
 const knownDeviceSeconds = 180 * 24 * 3600
 
 /**
  * Every place that checks a password goes through `checkPassword`; password-reset requests go
- * through `assertResetAllowed`. Counters live in PostgreSQL, so they hold across processes.
+ * through `assertResetAllowed`, club sign-up requests through `assertSignupAllowed`. Counters
+ * live in PostgreSQL, so they hold across processes.
  */
 export function createLimits(pool: pg.Pool, rules: LimitRules) {
   const pair = limiter(pool, 'pw-pair', rules.password.pair)
   const client = limiter(pool, 'pw-client', rules.password.client)
   const account = limiter(pool, 'pw-account', rules.password.account)
   const known = limiter(pool, 'pw-device', { points: 1, seconds: knownDeviceSeconds })
-  const resetClient = limiter(pool, 'reset-client', rules.reset.client)
-  const resetAddress = limiter(pool, 'reset-address', rules.reset.address)
+  const resetRequests = mailRequests(pool, 'reset', rules.reset, 'Too many reset requests.')
+  const signupRequests = mailRequests(
+    pool,
+    'signup',
+    rules.signup ?? defaultSignupRules,
+    'Too many sign-up requests.',
+  )
 
   const keys = (email: string, ip: string) => ({
     pair: `${digest(email)}:${digest(clientKey(ip))}`,
@@ -168,16 +201,10 @@ export function createLimits(pool: pg.Pool, rules: LimitRules) {
     },
 
     /** Refuses with 429 once this client or this address asked for too many reset links. */
-    async assertResetAllowed(email: string, ip: string) {
-      const waits = await Promise.all([
-        take(resetClient, digest(clientKey(ip))),
-        take(resetAddress, digest(email)),
-      ])
-      const wait = Math.max(...waits)
-      if (wait > 0) {
-        throw tooMany(wait, `Too many reset requests. Try again in ${wait} seconds.`)
-      }
-    },
+    assertResetAllowed: resetRequests,
+
+    /** Refuses with 429 once this client or this address asked for too many sign-up links. */
+    assertSignupAllowed: signupRequests,
   }
 }
 

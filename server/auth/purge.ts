@@ -1,11 +1,11 @@
 import { isNotNull, lt, or, sql } from 'drizzle-orm'
 import type { Db } from '../db/client.ts'
-import { passwordResets, rateLimits, sessions } from '../db/schema.ts'
+import { clubSignups, passwordResets, rateLimits, sessions } from '../db/schema.ts'
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime
- * moves the expiry no further, so it is covered), reset links that expired or were used, and
- * limiter counters whose window closed. Safe to run from every process at once.
+ * moves the expiry no further, so it is covered), reset and club sign-up links that expired or
+ * were used, and limiter counters whose window closed. Safe to run from every process at once.
  */
 export async function purgeExpired(db: Db, now = new Date()) {
   const ended = await db
@@ -16,11 +16,20 @@ export async function purgeExpired(db: Db, now = new Date()) {
     .delete(passwordResets)
     .where(or(lt(passwordResets.expiresAt, now), isNotNull(passwordResets.usedAt)))
     .returning({ tokenHash: passwordResets.tokenHash })
+  const signups = await db
+    .delete(clubSignups)
+    .where(or(lt(clubSignups.expiresAt, now), isNotNull(clubSignups.usedAt)))
+    .returning({ tokenHash: clubSignups.tokenHash })
   const counters = await db
     .delete(rateLimits)
     .where(lt(rateLimits.expire, sql`${now.getTime()}`))
     .returning({ key: rateLimits.key })
-  return { sessions: ended.length, resets: resets.length, counters: counters.length }
+  return {
+    sessions: ended.length,
+    resets: resets.length,
+    signups: signups.length,
+    counters: counters.length,
+  }
 }
 
 /** Purges now and then every `intervalMs`; the timer does not keep the process alive. */

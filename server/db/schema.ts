@@ -233,6 +233,25 @@ export const passwordResets = pgTable(
 )
 
 /**
+ * A club asked for on the Start a club page, waiting for its e-mail address to be confirmed.
+ * Looked up by the token's hash, a global value: no club exists yet, so no club_id.
+ */
+export const clubSignups = pgTable(
+  'club_signups',
+  {
+    /** SHA-256 of the token sent by e-mail; the token itself is never stored. */
+    tokenHash: text().primaryKey(),
+    email: text().notNull(),
+    personName: text().notNull(),
+    clubName: text().notNull(),
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    usedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index().on(t.expiresAt)],
+)
+
+/**
  * The club's catalogue. Description columns are what the director types; rotation class, twist
  * band and the two keys are derived by shared/domain/catalogue.ts on every write and stored only
  * so that SQL can filter and join on them.

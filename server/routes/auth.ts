@@ -24,7 +24,7 @@ import {
 import { acceptInvitation, previewInvitation } from '../services/members.ts'
 
 /** The client's address as Express resolves it (through X-Forwarded-For only with TRUST_PROXY). */
-const clientOf = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown'
+export const clientOf = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown'
 
 /** /api/auth: signing in and out, the person's own account and sessions, invitations, resets. */
 export function authRouter(ctx: AppContext) {

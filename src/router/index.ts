@@ -7,7 +7,7 @@ import { progressRoutes } from './progressRoutes'
 declare module 'vue-router' {
   interface RouteMeta {
     title?: string
-    /** Reachable signed out (sign-in, invitation, password reset). */
+    /** Reachable signed out (sign-in, invitation, password reset, starting a club). */
     public?: boolean
     /** Roles that may open the page; absent means every signed-in role. */
     roles?: Role[]
@@ -46,6 +46,18 @@ export const routes: RouteRecordRaw[] = [
     name: 'accept-invitation',
     component: () => import('@/views/AcceptInvitationView.vue'),
     meta: { title: 'Accept invitation', public: true },
+  },
+  {
+    path: '/start-club',
+    name: 'start-club',
+    component: () => import('@/views/StartClubView.vue'),
+    meta: { title: 'Start a club', public: true },
+  },
+  {
+    path: '/confirm-club',
+    name: 'confirm-club',
+    component: () => import('@/views/ConfirmClubView.vue'),
+    meta: { title: 'Confirm your club', public: true },
   },
   {
     path: '/members',

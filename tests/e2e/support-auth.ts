@@ -7,6 +7,8 @@ export async function signIn(page: Page, email: string) {
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(demoPassword)
   await page.getByRole('button', { name: 'Sign in' }).click()
+  // The sign-in page has a heading of its own: wait to have left it.
+  await expect(page).not.toHaveURL(/\/sign-in/)
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
 }
 
