@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { expectNoSeriousAxeViolations, screenshot } from './support.ts'
+import { expectNoSeriousAxeViolations, openMailTo, screenshot } from './support.ts'
 import { mainNav, signIn, signOut } from './support-auth.ts'
 
 test('a signed-out visitor is sent to sign-in', async ({ page }) => {
@@ -61,9 +61,7 @@ test('an invitation is accepted end to end with the link from the local mail vie
   expect(new URL(viewerUrl!).hostname).toBe('127.0.0.1')
   await screenshot(page, 'members')
 
-  await page.goto(viewerUrl!)
-  const message = page.locator('article', { hasText: invitee }).first()
-  await expect(message).toBeVisible()
+  const message = await openMailTo(page, viewerUrl!, invitee)
   const link = await message.getByRole('link').first().getAttribute('href')
   expect(link).toMatch(/\/accept-invitation#token=/)
   await expectNoSeriousAxeViolations(page)

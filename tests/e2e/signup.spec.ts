@@ -1,6 +1,6 @@
 import { expect, test, type Page } from '@playwright/test'
 import { standardCatalogue } from '../../shared/domain/standard-catalogue.ts'
-import { expectNoSeriousAxeViolations, screenshot } from './support.ts'
+import { expectNoSeriousAxeViolations, openMailTo, screenshot } from './support.ts'
 
 /** The confirmation link of the newest message to `email`, read in the local mail viewer. */
 async function linkFromMailViewer(page: Page, email: string) {
@@ -8,9 +8,7 @@ async function linkFromMailViewer(page: Page, email: string) {
   await expect(viewerLink).toBeVisible()
   const viewerUrl = await viewerLink.getAttribute('href')
   expect(new URL(viewerUrl!).hostname).toBe('127.0.0.1')
-  await page.goto(viewerUrl!)
-  const message = page.locator('article', { hasText: email }).first()
-  await expect(message).toBeVisible()
+  const message = await openMailTo(page, viewerUrl!, email)
   const link = await message.getByRole('link').first().getAttribute('href')
   expect(link).toMatch(/\/confirm-club#token=/)
   return link!

@@ -25,3 +25,17 @@ export async function expectNoSeriousAxeViolations(page: Page) {
     .map((v) => `${v.id}: ${v.help} (${v.nodes.length})`)
   expect(serious).toEqual([])
 }
+
+/**
+ * Opens the local mail viewer at `viewerUrl` until a message to `email` is there (a worker sends
+ * mail a moment after the request that causes it; the viewer is a plain page, reloaded here) and
+ * answers that message.
+ */
+export async function openMailTo(page: Page, viewerUrl: string, email: string) {
+  const message = page.locator('article', { hasText: email }).first()
+  await expect(async () => {
+    await page.goto(viewerUrl)
+    await expect(message).toBeVisible({ timeout: 500 })
+  }).toPass({ timeout: 15_000 })
+  return message
+}
