@@ -19,6 +19,7 @@ import { demoPassword, demoPeople } from '../../seed/demo.ts'
 // with nothing but the environment: no TypeScript loader, no demo, no local fakes of their own.
 
 const compiledServer = 'build/server/index.js'
+const compiledWorker = 'build/server/worker.js'
 const compiledMigrate = 'build/server/cli/migrate.js'
 
 /** Only what a production host would set: no NODE_OPTIONS, no loader inherited from the runner. */
@@ -67,7 +68,7 @@ test('the compiled migration command needs DATABASE_URL in production', () => {
   expect(run.stderr).toContain('DATABASE_URL: required in production')
 })
 
-test('migrated and served compiled: health, the client, a PDF drawn on its worker, SIGTERM', async () => {
+test('migrated and served compiled: health, the client, a PDF drawn on its worker, a worker process, SIGTERM', async () => {
   test.setTimeout(180_000)
   const cluster = await throwawayCluster('twofold-production-')
   const smtp = await startFakeSmtp()
@@ -150,6 +151,51 @@ test('migrated and served compiled: health, the client, a PDF drawn on its worke
     expect(pdf.status).toBe(200)
     const bytes = Buffer.from(await pdf.arrayBuffer())
     expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-')
+
+    // A compiled worker does the audits and sends the mail the web process queued.
+    const worker = spawn(process.execPath, [compiledWorker], {
+      cwd: projectDir,
+      env: productionEnv({
+        DATABASE_URL: databaseUrl,
+        PUBLIC_URL: base,
+        SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+      }),
+      stdio: ['ignore', 'ignore', 'inherit'],
+    })
+    const workerExited = new Promise<number | null>((resolve) => worker.on('exit', resolve))
+    try {
+      const started = await fetch(`${base}/api/clubs/${activeClubId}/audits`, {
+        method: 'POST',
+        headers: { cookie, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ squadId: null }),
+      })
+      expect(started.status).toBe(202)
+      const { id: runId } = (await started.json()) as { id: string }
+      await expect
+        .poll(
+          async () =>
+            (
+              (await (
+                await fetch(`${base}/api/clubs/${activeClubId}/audit-jobs/${runId}`, {
+                  headers: { cookie },
+                })
+              ).json()) as { status: string }
+            ).status,
+          { timeout: 30_000 },
+        )
+        .toBe('done')
+      const reset = await fetch(`${base}/api/auth/password-reset/request`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json' },
+        body: JSON.stringify({ email: director.email }),
+      })
+      expect(reset.status).toBe(202)
+      const mail = await smtp.waitFor(director.email, 20_000)
+      expect(mail.text).toContain(`${base}/reset-password#token=`)
+    } finally {
+      worker.kill('SIGTERM')
+    }
+    expect(await workerExited).toBe(0)
 
     server.kill('SIGTERM')
     expect(await exited).toBe(0)
