@@ -35,6 +35,29 @@ export async function checkCredentials(db: DbOrTx, email: string, password: stri
   return (await verifyPassword(user.passwordHash, password)) ? user : null
 }
 
+/**
+ * Checks the password of a person's existing account, given where a new account would be made
+ * (accepting an invitation, confirming a club), under the same limits as signing in.
+ */
+export async function assertExistingPassword(
+  ctx: Pick<AppContext, 'limits'>,
+  user: { email: string; passwordHash: string | null },
+  client: string,
+  password: string,
+) {
+  const matches = await ctx.limits.checkPassword(user.email, client, async () =>
+    Boolean(user.passwordHash && (await verifyPassword(user.passwordHash, password))),
+  )
+  if (!matches) {
+    throw new AppError(
+      400,
+      'wrong_password',
+      'That is not the password of your existing account.',
+      [{ path: 'password', message: 'Enter the password of your existing Twofold account.' }],
+    )
+  }
+}
+
 /** Refuses a weak password with the estimator's advice, on the given field. */
 export async function assertStrongPassword(password: string, field: string, personal: string[]) {
   const problem = await passwordProblem(password, personal)

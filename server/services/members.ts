@@ -9,7 +9,7 @@ import type {
   MemberView,
   MembershipUpdate,
 } from '../../shared/schemas/auth.ts'
-import { hashPassword, verifyPassword } from '../auth/password.ts'
+import { hashPassword } from '../auth/password.ts'
 import { hashToken, newToken } from '../auth/tokens.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { AppContext } from '../context.ts'
@@ -24,7 +24,7 @@ import {
 } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
-import { assertStrongPassword, findUserByEmail } from './accounts.ts'
+import { assertExistingPassword, assertStrongPassword, findUserByEmail } from './accounts.ts'
 
 export const invitationLifetimeMs = 7 * 24 * 3_600_000
 
@@ -412,20 +412,7 @@ export async function acceptInvitation(
   const existing = await findUserByEmail(ctx.db, invitation.email)
   let passwordHash: string | undefined
   if (existing) {
-    // The existing account's password is checked under the same limits as signing in.
-    const matches = await ctx.limits.checkPassword(existing.email, client, async () =>
-      Boolean(
-        existing.passwordHash && (await verifyPassword(existing.passwordHash, input.password)),
-      ),
-    )
-    if (!matches) {
-      throw new AppError(
-        400,
-        'wrong_password',
-        'That is not the password of your existing account.',
-        [{ path: 'password', message: 'Enter the password of your existing Twofold account.' }],
-      )
-    }
+    await assertExistingPassword(ctx, existing, client, input.password)
   } else {
     if (!input.name)
       throw new AppError(400, 'invalid_input', 'Enter your name.', [

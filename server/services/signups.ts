@@ -5,14 +5,14 @@ import type {
   ClubSignupPreview,
   ClubSignupRequest,
 } from '../../shared/schemas/signup.ts'
-import { hashPassword, verifyPassword } from '../auth/password.ts'
+import { hashPassword } from '../auth/password.ts'
 import { hashToken, newToken } from '../auth/tokens.ts'
 import type { AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { clubSignups, memberships, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
-import { assertStrongPassword, findUserByEmail } from './accounts.ts'
+import { assertExistingPassword, assertStrongPassword, findUserByEmail } from './accounts.ts'
 import { createClubNamed } from './clubs.ts'
 
 export const signupLifetimeMs = 24 * 3_600_000
@@ -93,19 +93,7 @@ export async function confirmClubSignup(ctx: AppContext, input: ClubSignupConfir
   const existing = await findUserByEmail(ctx.db, signup.email)
   let passwordHash: string | undefined
   if (existing) {
-    const matches = await ctx.limits.checkPassword(existing.email, client, async () =>
-      Boolean(
-        existing.passwordHash && (await verifyPassword(existing.passwordHash, input.password)),
-      ),
-    )
-    if (!matches) {
-      throw new AppError(
-        400,
-        'wrong_password',
-        'That is not the password of your existing account.',
-        [{ path: 'password', message: 'Enter the password of your existing Twofold account.' }],
-      )
-    }
+    await assertExistingPassword(ctx, existing, client, input.password)
   } else {
     await assertStrongPassword(input.password, 'password', [
       signup.email,

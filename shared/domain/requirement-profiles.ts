@@ -1,25 +1,10 @@
 import type { AgeCategory } from './age-categories.ts'
 import type { RequirementProfile } from './audit.ts'
 import type { Discipline } from './club.ts'
+import { slugify as slug } from './slug.ts'
 
 /** The longest id the API accepts for a requirement profile. */
 export const profileIdMaxLength = 60
-
-function slug(text: string, maxLength: number) {
-  return (
-    text
-      // Accents come off rather than turning into dashes: "Bänder" → "bander".
-      .normalize('NFKD')
-      .replace(/[\u0300-\u036f]/g, '')
-      .toLowerCase()
-      // An apostrophe joins its word, so "Women's" reads "womens", not "women-s".
-      .replace(/['’]/g, '')
-      .replace(/[^a-z0-9]+/g, '-')
-      .replace(/^-+/, '')
-      .slice(0, maxLength)
-      .replace(/-+$/, '')
-  )
-}
 
 /**
  * The id of a new requirement profile, derived from its name: lower-case letters, digits and
