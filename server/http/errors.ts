@@ -82,12 +82,22 @@ export function isDatabaseUnreachable(err: unknown, depth = 0): boolean {
   return isDatabaseUnreachable(cause, depth + 1)
 }
 
-/** PostgreSQL refused a character in a text value (NUL above all), wherever it came from. */
-function isUnstorableText(err: unknown, depth = 0): boolean {
-  if (depth > 5 || err === null || typeof err !== 'object') return false
+/** The SQLSTATE of a PostgreSQL error, also when wrapped (Drizzle's query error holds it). */
+function sqlStateOf(err: unknown, depth = 0): string | undefined {
+  if (depth > 5 || err === null || typeof err !== 'object') return undefined
   const { code, cause } = err as { code?: unknown; cause?: unknown }
-  return code === '22021' || code === '22P05' || isUnstorableText(cause, depth + 1)
+  if (typeof code === 'string' && /^[0-9A-Z]{5}$/.test(code)) return code
+  return sqlStateOf(cause, depth + 1)
 }
+
+/** PostgreSQL refused a character in a text value (NUL above all), wherever it came from. */
+const isUnstorableText = (err: unknown) => ['22021', '22P05'].includes(sqlStateOf(err) ?? '')
+
+/**
+ * Two requests raced to create the same thing (the same e-mail's account, say) and the second
+ * met the unique index: the person is told to look again, not shown a fault.
+ */
+const isRace = (err: unknown) => ['23505', '40001', '40P01'].includes(sqlStateOf(err) ?? '')
 
 interface BodyParserError extends Error {
   type?: string
@@ -132,6 +142,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
       error: {
         code: 'invalid_input',
         message: 'Some text holds a character that cannot be saved, such as NUL. Retype it.',
+      },
+    }
+  } else if (isRace(err)) {
+    status = 409
+    req.log?.warn({ err }, 'concurrent change')
+    body = {
+      error: {
+        code: 'conflict',
+        message: 'This was changed by someone else at the same moment. Reload and try again.',
       },
     }
   } else if (isDatabaseUnreachable(err)) {

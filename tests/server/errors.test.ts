@@ -1,6 +1,9 @@
+import express from 'express'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
+import { errorHandler } from '../../server/http/errors.ts'
+import { createUser } from '../../server/services/members.ts'
 import { apiErrorBodySchema } from '../../shared/schemas/errors.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -41,5 +44,21 @@ describe('API errors', () => {
     expect(csp).toContain("script-src 'self'")
     expect(csp).not.toMatch(/script-src[^;]*unsafe-inline/)
     expect(res.headers['x-content-type-options']).toBe('nosniff')
+  })
+})
+
+describe('a change that raced another', () => {
+  it('answers 409 when two requests create the same thing at once, not 500', async () => {
+    // Two new accounts with one e-mail address, as two invitations accepted at the same moment
+    // would make: the second meets the unique index on users.
+    const app = express()
+    app.post('/race', async () => {
+      await createUser(database.db, { email: 'race@test.example', name: 'First' })
+      await createUser(database.db, { email: 'race@test.example', name: 'Second' })
+    })
+    app.use(errorHandler)
+    const res = await request(app).post('/race')
+    expect(res.status).toBe(409)
+    expect(apiErrorBodySchema.parse(res.body).error.code).toBe('conflict')
   })
 })
