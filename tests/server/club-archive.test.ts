@@ -1,8 +1,5 @@
-import { createHash } from 'node:crypto'
 import { and, count, eq } from 'drizzle-orm'
-import Papa from 'papaparse'
 import pino from 'pino'
-import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { purgeExpired } from '../../server/auth/purge.ts'
@@ -17,151 +14,76 @@ import {
   users,
 } from '../../server/db/schema.ts'
 import { buildClubArchive, type ArchiveProgress } from '../../server/services/archive-zip.ts'
-import { createAthlete } from '../../server/services/athletes.ts'
-import { runAndStore } from '../../server/services/audits.ts'
 import { processClubArchive } from '../../server/services/club-archives.ts'
-import { appendHistory } from '../../server/services/progress.ts'
 import {
   archivePhases,
   archiveManifestSchema,
   type ArchiveManifest,
   type ClubArchiveJob,
 } from '../../shared/schemas/archives.ts'
+import {
+  archiveClub,
+  csvRows,
+  downloadArchive,
+  formulaNote,
+  makeArchive,
+  sha256,
+} from '../support/archive-club.ts'
+import { tablesWithClubId } from '../support/catalog.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
+import { signedIn } from '../support/fixtures.ts'
 import { readZip } from '../support/zip.ts'
 
-// A small club with known data (two athletes, a history with a correction, an audit) and a
-// second club whose data must stay out of the first one's archive.
+/** Each club table and the file of the archive that holds its rows, one row each. */
+const archivedIn: Record<string, string> = {
+  memberships: 'members.csv',
+  squads: 'squads.csv',
+  coach_squads: 'coach-assignments.csv',
+  athletes: 'athletes.csv',
+  elements: 'elements.csv',
+  element_steps: 'progression-steps.csv',
+  element_step_maps: 'progression-step-maps.csv',
+  element_prerequisites: 'prerequisites.csv',
+  progression_templates: 'progression-templates.json',
+  progress_events: 'progress-events.csv',
+  progress_records: 'progress-records.csv',
+  requirement_profiles: 'requirement-profiles.json',
+  age_thresholds: 'age-thresholds.csv',
+  audits: 'audits.csv',
+}
+/** Tables with club_id whose rows the archive leaves out, with the reason. */
+const leftOut: Record<string, string> = {
+  sessions: 'sign-in sessions: secrets, and club_id only names the club last worked in',
+  invitations: 'access on its way to someone, not yet the club’s; it ends with the club',
+  invitation_tokens: 'the secret links of invitations',
+  audit_runs: 'requests for audits; the audits themselves are in the archive',
+  club_archives: 'the archives themselves',
+  club_archive_files: 'the archives themselves',
+}
 
-type Club = Awaited<ReturnType<typeof clubWithPeople>>
+// A small club with known data and a second club (tests/support/archive-club.ts).
 
 let database: Database
 let t: TestApp
-let fx: Club
-let other: Club
+let c: Awaited<ReturnType<typeof archiveClub>>
+let fx: (typeof c)['fx']
 let director: TestAgent
 let base: string
-let correctedEventId: string
-let correctionEventId: string
-let theirAthlete: string
-const formulaNote = '=HYPERLINK("http://example.invalid","x")'
-
-const sha256 = (data: Buffer) => createHash('sha256').update(data).digest('hex')
-const csvRows = (data: Buffer) =>
-  Papa.parse<Record<string, string>>(data.toString('utf8'), { header: true, skipEmptyLines: true })
-    .data
-
-async function athlete(club: Club, givenName: string, familyName: string) {
-  return (
-    await createAthlete(database.db, club.club.id, {
-      givenName,
-      familyName,
-      birthYear: 2012,
-      squadId: club.squad.id,
-      discipline: 'artistic-women',
-    })
-  ).id
-}
 
 beforeAll(async () => {
   database = await freshDatabase()
   t = await testApp(database)
-  fx = await clubWithPeople(database.db, 'archive')
-  other = await clubWithPeople(database.db, 'elsewhere')
-  director = await signedIn(t, fx.people.director.email)
-  base = `/api/clubs/${fx.club.id}`
-  const { backTuck, frontTuck } = await floorTucks(database.db, fx.club.id)
-  const ada = await athlete(fx, 'Ada', 'Quillmere')
-  const bea = await athlete(fx, 'Bea', 'Harrowfield')
-  const coach = await signedIn(t, fx.people.coach.email)
-  // A step logged by mistake, then voided by a correction: both stay in the history.
-  const first = await coach
-    .post(`${base}/athletes/${ada}/events`)
-    .send({
-      elementId: backTuck,
-      kind: 'step',
-      stepIndex: 0,
-      occurredOn: '2026-05-02',
-      note: formulaNote,
-      expectedLastEventId: null,
-    })
-    .expect(201)
-  correctedEventId = first.body.record.lastEventId
-  const fix = await coach
-    .post(`${base}/athletes/${ada}/events`)
-    .send({
-      elementId: backTuck,
-      kind: 'step',
-      stepIndex: 0,
-      occurredOn: '2026-05-03',
-      correctsEventId: correctedEventId,
-      expectedLastEventId: correctedEventId,
-    })
-    .expect(201)
-  correctionEventId = fix.body.record.lastEventId
-  const step = (athleteId: string, elementId: string, stepIndex: number, occurredOn: string) => ({
-    athleteId,
-    elementId,
-    coachId: fx.people.coach.id,
-    change: { kind: 'step' as const, stepIndex, occurredOn, skipReason: 'Assessed' },
-  })
-  await appendHistory(database.db, fx.club.id, [
-    step(ada, backTuck, 1, '2026-05-10'),
-    step(ada, backTuck, 2, '2026-05-20'),
-    step(bea, backTuck, 1, '2026-05-10'),
-    step(bea, frontTuck, 1, '2026-05-12'),
-    step(bea, frontTuck, 2, '2026-06-01'),
-  ])
-  await runAndStore(
-    database.db,
-    { clubId: fx.club.id, userId: fx.people.director.id, role: 'director' },
-    { squadId: null },
-  )
-
-  theirAthlete = await athlete(other, 'Zephyrine', 'Otherclubson')
-  const { backTuck: theirTuck } = await floorTucks(database.db, other.club.id)
-  await appendHistory(database.db, other.club.id, [
-    { ...step(theirAthlete, theirTuck, 0, '2026-05-01'), coachId: other.people.coach.id },
-  ])
-  // Secrets that exist in the database and must not reach the archive.
-  await director
-    .post(`${base}/invitations`)
-    .send({ email: 'invited-archive@test.example', role: 'coach' })
-    .expect(201)
-  await request(t.app)
-    .post('/api/auth/password-reset/request')
-    .send({ email: fx.people.director.email })
-    .expect(202)
+  c = await archiveClub(database, t)
+  ;({ fx, director, base } = c)
 })
 afterAll(async () => {
   await t.close()
   await database.close()
 })
 
-/** Asks for an archive and polls it until it is no longer running. */
-async function makeArchive(agent = director) {
-  const started = await agent.post(`${base}/archives`).expect(202)
-  let job = started.body as ClubArchiveJob
-  expect(job).toMatchObject({ status: 'running', phase: 'queued' })
-  for (let i = 0; i < 400 && job.status === 'running'; i++) {
-    await new Promise((r) => setTimeout(r, 25))
-    job = (await agent.get(`${base}/archives/${job.id}`).expect(200)).body
-  }
-  expect(job.status).toBe('done')
-  return job
-}
-
-const download = (id: string, agent = director) =>
-  agent
-    .get(`${base}/archives/${id}/download`)
-    .buffer(true)
-    .parse((res, callback) => {
-      const chunks: Buffer[] = []
-      res.on('data', (c: Buffer) => chunks.push(c))
-      res.on('end', () => callback(null, Buffer.concat(chunks)))
-    })
+const finishedArchive = () => makeArchive(director, base)
+const download = (id: string) => downloadArchive(director, base, id)
 
 describe('a club archive', () => {
   let job: ClubArchiveJob
@@ -169,7 +91,7 @@ describe('a club archive', () => {
   let manifest: ArchiveManifest
 
   beforeAll(async () => {
-    job = await makeArchive()
+    job = await finishedArchive()
     const res = await download(job.id).expect(200)
     files = readZip(res.body as Buffer)
     manifest = archiveManifestSchema.parse(JSON.parse(files.get('manifest.json')!.toString()))
@@ -227,6 +149,19 @@ describe('a club archive', () => {
     expect(manifest.files.find((f) => f.name === 'members.csv')!.rows).toBe(4)
   })
 
+  it('holds every club table, row for row, but those it leaves out for a stated reason', async () => {
+    const tables = await tablesWithClubId(database.pool)
+    expect(tables).toEqual(Object.keys({ ...archivedIn, ...leftOut }).sort())
+    for (const [table, file] of Object.entries(archivedIn)) {
+      const { rows } = await database.pool.query<{ n: number }>(
+        `select count(*)::int as n from "${table}" where club_id = $1`,
+        [fx.club.id],
+      )
+      const listed = manifest.files.find((f) => f.name === file)
+      expect(listed?.rows, `${table} in ${file}`).toBe(rows[0]!.n)
+    }
+  })
+
   it('holds the full history of events, the correction and the event it voids included', async () => {
     const events = csvRows(files.get('progress-events.csv')!)
     const stored = await database.db
@@ -247,9 +182,11 @@ describe('a club archive', () => {
         correctsEventId: row.correctsEventId ?? '',
       })
     }
-    expect(events.find((e) => e.id === correctionEventId)!.correctsEventId).toBe(correctedEventId)
+    expect(events.find((e) => e.id === c.correctionEventId)!.correctsEventId).toBe(
+      c.correctedEventId,
+    )
     // A note a spreadsheet would run as a formula is written as text.
-    expect(events.find((e) => e.id === correctedEventId)!.note).toBe(`'${formulaNote}`)
+    expect(events.find((e) => e.id === c.correctedEventId)!.note).toBe(`'${formulaNote}`)
     const records = csvRows(files.get('progress-records.csv')!)
     expect(records).toHaveLength(3)
   })
@@ -307,13 +244,13 @@ describe('a club archive', () => {
     expect(resetHashes.length).toBeGreaterThan(0)
     expect(inviteHashes.length).toBeGreaterThan(0)
     const theirs = [
-      other.club.id,
-      other.club.name,
-      other.squad.id,
+      c.other.club.id,
+      c.other.club.name,
+      c.other.squad.id,
       'Zephyrine',
-      theirAthlete,
-      other.people.coach.email,
-      other.people.coach.id,
+      c.theirAthlete,
+      c.other.people.coach.email,
+      c.other.people.coach.id,
     ]
     for (const [name, data] of files) {
       const text = data.toString('utf8')
@@ -383,18 +320,18 @@ describe('building an archive', () => {
 
 describe('who may take the data away', () => {
   it('refuses coaches, clinicians and the board, and hides the club from other directors', async () => {
-    const job = await makeArchive()
+    const job = await finishedArchive()
     const paths = [`${base}/archives/${job.id}`, `${base}/archives/${job.id}/download`]
     for (const role of ['coach', 'clinician', 'board'] as const) {
       const agent = await signedIn(t, fx.people[role].email)
       await agent.post(`${base}/archives`).expect(403)
       for (const path of paths) await agent.get(path).expect(403)
     }
-    const outsider = await signedIn(t, other.people.director.email)
+    const outsider = await signedIn(t, c.other.people.director.email)
     await outsider.post(`${base}/archives`).expect(404)
     for (const path of paths) await outsider.get(path).expect(404)
     // Their own club's address with this club's archive id finds nothing either.
-    const theirs = `/api/clubs/${other.club.id}/archives/${job.id}`
+    const theirs = `/api/clubs/${c.other.club.id}/archives/${job.id}`
     await outsider.get(theirs).expect(404)
     await outsider.get(`${theirs}/download`).expect(404)
   })
@@ -411,8 +348,8 @@ describe('the life of an archive', () => {
   })
 
   it('answers 410 once its 24 hours are over, and the purge then deletes it', async () => {
-    const kept = await makeArchive()
-    const job = await makeArchive()
+    const kept = await finishedArchive()
+    const job = await finishedArchive()
     const where = and(eq(clubArchives.clubId, fx.club.id), eq(clubArchives.id, job.id))
     const [row] = await database.db.select().from(clubArchives).where(where)
     const expiresIn = row!.expiresAt.getTime() - row!.finishedAt!.getTime()
