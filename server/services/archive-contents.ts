@@ -391,16 +391,21 @@ function auditFiles(
     },
   )
   const results = list.map((a): ArchiveFile =>
-    jsonFile(auditFileName(a), 'audits', async () => {
-      const [row] = await db.select().from(audits).where(ofAudit(a.id))
-      const { clubId: _club, result, figures: _figures, ...meta } = row!
-      return {
-        ...meta,
-        createdAt: iso(meta.createdAt),
-        publishedAt: iso(meta.publishedAt),
-        result: unpackAuditResult(result),
-      }
-    }),
+    jsonFile(
+      auditFileName(a),
+      'audits',
+      async () => {
+        const [row] = await db.select().from(audits).where(ofAudit(a.id))
+        const { clubId: _club, result, figures: _figures, ...meta } = row!
+        return {
+          ...meta,
+          createdAt: iso(meta.createdAt),
+          publishedAt: iso(meta.publishedAt),
+          result: unpackAuditResult(result),
+        }
+      },
+      { compact: true },
+    ),
   )
   return [summary, ...results]
 }

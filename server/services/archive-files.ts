@@ -52,17 +52,20 @@ export const csvFile = (
   rows: () => Promise<Row[]>,
 ): ArchiveFile => ({ name, phase, parts: 1, chunks: () => csvChunks(fields, onePage(rows())) })
 
+/** A JSON file; `compact` for one that runs to megabytes (a large club's audit result). */
 export const jsonFile = (
   name: string,
   phase: ArchivePhase,
   value: () => Promise<unknown>,
+  options: { compact?: boolean } = {},
 ): ArchiveFile => ({
   name,
   phase,
   parts: 1,
   async *chunks() {
     const data = await value()
-    yield { text: JSON.stringify(data, null, 2), rows: Array.isArray(data) ? data.length : 1 }
+    const text = JSON.stringify(data, null, options.compact ? undefined : 2)
+    yield { text, rows: Array.isArray(data) ? data.length : 1 }
   },
 })
 
