@@ -14,7 +14,7 @@ export interface AppContext {
   mailer: Mailer
   limits: Limits
   logger: Logger
-  /** Background work: audits and mail, done by workers. */
+  /** Background work: audits, club archives and mail, done by workers. */
   jobs: JobQueue
 }
 

@@ -1,11 +1,19 @@
-import { isNotNull, lt, or, sql } from 'drizzle-orm'
+import { inArray, isNotNull, lt, or, sql } from 'drizzle-orm'
 import type { Db } from '../db/client.ts'
-import { clubSignups, passwordResets, rateLimits, sessions } from '../db/schema.ts'
+import {
+  clubArchiveFiles,
+  clubArchives,
+  clubSignups,
+  passwordResets,
+  rateLimits,
+  sessions,
+} from '../db/schema.ts'
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime
  * moves the expiry no further, so it is covered), reset and club sign-up links that expired or
- * were used, and limiter counters whose window closed. Safe to run from every process at once.
+ * were used, limiter counters whose window closed, and club archives past their 24 hours (the
+ * zip first, then its row). Safe to run from every process at once.
  */
 export async function purgeExpired(db: Db, now = new Date()) {
   const ended = await db
@@ -24,11 +32,25 @@ export async function purgeExpired(db: Db, now = new Date()) {
     .delete(rateLimits)
     .where(lt(rateLimits.expire, sql`${now.getTime()}`))
     .returning({ key: rateLimits.key })
+  const expiredArchives = db
+    .select({ clubId: clubArchives.clubId, id: clubArchives.id })
+    .from(clubArchives)
+    .where(lt(clubArchives.expiresAt, now))
+  await db
+    .delete(clubArchiveFiles)
+    .where(
+      inArray(sql`(${clubArchiveFiles.clubId}, ${clubArchiveFiles.archiveId})`, expiredArchives),
+    )
+  const archives = await db
+    .delete(clubArchives)
+    .where(lt(clubArchives.expiresAt, now))
+    .returning({ id: clubArchives.id })
   return {
     sessions: ended.length,
     resets: resets.length,
     signups: signups.length,
     counters: counters.length,
+    archives: archives.length,
   }
 }
 

@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm'
 import {
   bigint,
   boolean,
+  customType,
   date,
   foreignKey,
   index,
@@ -581,6 +582,59 @@ export const auditRuns = pgTable(
   (t) => [
     primaryKey({ columns: [t.clubId, t.id] }),
     foreignKey({ columns: [t.clubId, t.auditId], foreignColumns: [audits.clubId, audits.id] }),
+  ],
+)
+
+/** Raw bytes (PostgreSQL bytea), read and written as a Buffer. */
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' })
+
+/**
+ * A director's download of everything the club holds, built by a worker as one zip archive. The
+ * row carries the build's progress, so that any web process answers a poll; the bytes live in
+ * club_archive_files, which no poll reads. An archive is kept 24 hours, then purged.
+ */
+export const clubArchives = pgTable(
+  'club_archives',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    requestedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    jobId: uuid(),
+    status: text().$type<'running' | 'done' | 'failed'>().notNull().default('running'),
+    phase: text().notNull().default('queued'),
+    done: integer().notNull().default(0),
+    total: integer().notNull().default(1),
+    error: text(),
+    createdAt: createdAt(),
+    finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    /** A download after this answers 410; the purge deletes the row and its bytes. */
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    byteSize: integer(),
+    /** SHA-256 of the whole zip, hex. */
+    sha256: text(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    index('club_archives_expires_idx').on(t.expiresAt),
+  ],
+)
+
+/** The zip of a finished archive, apart from its row so that polls never read it. */
+export const clubArchiveFiles = pgTable(
+  'club_archive_files',
+  {
+    clubId: uuid().notNull(),
+    archiveId: uuid().notNull(),
+    bytes: bytea().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.archiveId] }),
+    foreignKey({
+      columns: [t.clubId, t.archiveId],
+      foreignColumns: [clubArchives.clubId, clubArchives.id],
+    }).onDelete('cascade'),
   ],
 )
 

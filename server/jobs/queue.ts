@@ -6,6 +6,7 @@ import type { DbOrTx } from '../db/client.ts'
 export const queues = {
   auditRun: 'audit-run',
   mail: 'mail',
+  clubArchive: 'club-archive',
 } as const
 export type QueueName = (typeof queues)[keyof typeof queues]
 
@@ -24,7 +25,16 @@ export const defaultJobSettings: JobSettings = {
   maintenanceSeconds: 30,
 }
 
-/** Retries with back-off: an audit a few times; mail for about a day while SMTP is down. */
+/**
+ * How long a club archive may be built before another worker takes it over: a club of 1,000
+ * athletes with 400,000 events is written in well under a minute, so this is a wide margin.
+ */
+export const archiveTimeoutSeconds = 30 * 60
+
+/**
+ * Retries with back-off: an audit or an archive a few times; mail for about a day while SMTP is
+ * down.
+ */
 export function queueOptions(settings: JobSettings) {
   return {
     [queues.auditRun]: {
@@ -34,6 +44,12 @@ export function queueOptions(settings: JobSettings) {
       expireInSeconds: settings.auditTimeoutSeconds,
     },
     [queues.mail]: { retryLimit: 14, retryDelay: 15, retryBackoff: true, expireInSeconds: 60 },
+    [queues.clubArchive]: {
+      retryLimit: 2,
+      retryDelay: 10,
+      retryBackoff: true,
+      expireInSeconds: archiveTimeoutSeconds,
+    },
   } satisfies Record<QueueName, PgBoss.Queue extends infer Q ? Omit<Q, 'name'> : never>
 }
 

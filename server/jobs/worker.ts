@@ -4,6 +4,7 @@ import type { Db } from '../db/client.ts'
 import { deliverMail } from '../mail/outbox.ts'
 import type { Mailer } from '../mail/mailer.ts'
 import { processAuditRun } from '../services/audit-runs.ts'
+import { processClubArchive } from '../services/club-archives.ts'
 import { queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
 
 export interface JobWorkerOptions {
@@ -22,7 +23,7 @@ export interface JobWorker {
 }
 
 /**
- * Takes jobs from the queues and does them: audits and mail. Any number of workers, in any
+ * Takes jobs from the queues and does them: audits, club archives and mail. Any number of workers, in any
  * number of processes, share the queues; a job whose worker died is expired by the others'
  * maintenance and retried.
  */
@@ -51,6 +52,15 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
     async ([job]) => {
       const lastAttempt = job!.retryCount >= (job!.retryLimit ?? limits[queues.auditRun].retryLimit)
       await processAuditRun(db, logger, { ...job!.data, lastAttempt })
+    },
+  )
+  ids[queues.clubArchive] = await boss.work<{ clubId: string; archiveId: string }>(
+    queues.clubArchive,
+    workOptions,
+    async ([job]) => {
+      const lastAttempt =
+        job!.retryCount >= (job!.retryLimit ?? limits[queues.clubArchive].retryLimit)
+      await processClubArchive(db, logger, { ...job!.data, lastAttempt })
     },
   )
   ids[queues.mail] = await boss.work<{ outboxId: string }>(

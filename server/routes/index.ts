@@ -1,4 +1,5 @@
 import type { AppContext } from '../context.ts'
+import { archiveRoutes } from './archives.ts'
 import { athleteRoutes } from './athletes.ts'
 import { auditRoutes } from './audits.ts'
 import { catalogueRoutes } from './catalogue.ts'
@@ -16,5 +17,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...squadRoutes(ctx),
     ...athleteRoutes(ctx),
     ...auditRoutes(ctx),
+    ...archiveRoutes(ctx),
   ]
 }

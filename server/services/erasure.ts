@@ -13,6 +13,8 @@ import {
   athletes,
   auditRuns,
   audits,
+  clubArchiveFiles,
+  clubArchives,
   clubs,
   coachSquads,
   elementPrerequisites,
@@ -99,6 +101,8 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
     if (!confirmationMatches(confirmName, club.name))
       throw mismatch(`Type “${club.name}” exactly to delete the club.`)
     for (const table of [
+      clubArchiveFiles,
+      clubArchives,
       progressRecords,
       progressEvents,
       auditRuns,

@@ -1,5 +1,6 @@
 import { submitAuditRun } from '../../server/services/audit-runs.ts'
 import { randomBytes } from 'node:crypto'
+import pino from 'pino'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -8,6 +9,7 @@ import type { Database } from '../../server/db/client.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { createProfile, runAndStore } from '../../server/services/audits.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
+import { processClubArchive, submitClubArchive } from '../../server/services/club-archives.ts'
 import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
@@ -135,6 +137,15 @@ const oneStep = [
   { name: 'Competition-ready', modality: 'routine', criterion: 'In a routine twice.' },
 ]
 const readers: Role[] = ['director', 'coach', 'clinician']
+
+const newArchive = (f: Fixture) => submitClubArchive(f.db.db, f.t.context.jobs, directorAccess(f))
+/** An archive built here and now, ready to download. */
+async function builtArchive(f: Fixture) {
+  const { id } = await newArchive(f)
+  const job = { clubId: f.club.id, archiveId: id, lastAttempt: true }
+  await processClubArchive(f.db.db, pino({ level: 'silent' }), job)
+  return id
+}
 
 async function pendingInvitation(f: Fixture) {
   const res = await f.director
@@ -457,6 +468,17 @@ const matrix: Record<string, Row> = {
       path: '/age-thresholds/tumbling',
       body: { juniorFromAge: 13, seniorFromAge: 17, source: 'from memory' },
     }),
+  },
+  'POST /archives': { allow: ['director'], ok: 202, request: async () => ({ path: '/archives' }) },
+  'GET /archives/:id': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/archives/${(await newArchive(f)).id}` }),
+  },
+  'GET /archives/:id/download': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/archives/${await builtArchive(f)}/download` }),
   },
   'GET /board-summary': {
     allow: ['director', 'board'],

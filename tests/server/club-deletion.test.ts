@@ -1,7 +1,13 @@
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
-import { elementPrerequisites, elementStepMaps, users } from '../../server/db/schema.ts'
+import {
+  clubArchiveFiles,
+  clubArchives,
+  elementPrerequisites,
+  elementStepMaps,
+  users,
+} from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { addMembership } from '../../server/services/members.ts'
@@ -62,6 +68,13 @@ async function populate(club: Club, agent: TestAgent) {
     .values({ clubId, elementId: frontTuck, requiresElementId: backTuck, stepIndex: 0 })
   const access = { clubId, userId: club.people.director.id, role: 'director' as const }
   await runAndStore(db, access, { squadId: null })
+  const [archive] = await db
+    .insert(clubArchives)
+    .values({ clubId, expiresAt: new Date(Date.now() + 3_600_000), status: 'done' })
+    .returning()
+  await db
+    .insert(clubArchiveFiles)
+    .values({ clubId, archiveId: archive!.id, bytes: Buffer.from('zip') })
   await agent
     .post(`/api/clubs/${clubId}/invitations`)
     .send({ email: `invited-${clubId.slice(0, 8)}@test.example`, role: 'board' })
@@ -127,6 +140,8 @@ describe('DELETE /api/clubs/:clubId', () => {
         'age_thresholds',
         'athletes',
         'audits',
+        'club_archive_files',
+        'club_archives',
         'coach_squads',
         'element_prerequisites',
         'element_step_maps',

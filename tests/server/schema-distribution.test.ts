@@ -34,6 +34,7 @@ const uniqueWithoutClubId: Record<string, string> = {}
  */
 const idsWithoutForeignKey: Record<string, string> = {
   'audit_runs.job_id': "a job of the queue, in pg-boss's own schema",
+  'club_archives.job_id': "a job of the queue, in pg-boss's own schema",
 }
 
 /**

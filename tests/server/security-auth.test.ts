@@ -6,7 +6,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { clientKey } from '../../server/auth/limits.ts'
 import { purgeExpired } from '../../server/auth/purge.ts'
 import type { Database } from '../../server/db/client.ts'
-import { passwordResets, rateLimits, sessions } from '../../server/db/schema.ts'
+import {
+  clubArchiveFiles,
+  clubArchives,
+  passwordResets,
+  rateLimits,
+  sessions,
+} from '../../server/db/schema.ts'
 import { EnvError, parseEnv } from '../../server/env.ts'
 import { createMailer } from '../../server/mail/mailer.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -353,10 +359,26 @@ describe('reset links do not pile up', () => {
       .set({ expiresAt: past })
       .where(eq(sessions.userId, fx.people.clinician.id))
     await database.db.insert(rateLimits).values({ key: 'old', points: 3, expire: Date.now() - 1 })
+    // A club archive past its 24 hours, and one still within them.
+    const archive = (expiresAt: Date) =>
+      database.db
+        .insert(clubArchives)
+        .values({ clubId: fx.club.id, status: 'done', expiresAt })
+        .returning()
+        .then(([row]) => row!.id)
+    const expiredArchive = await archive(past)
+    const liveArchive = await archive(new Date(Date.now() + 60_000))
+    await database.db
+      .insert(clubArchiveFiles)
+      .values({ clubId: fx.club.id, archiveId: expiredArchive, bytes: Buffer.from('zip') })
     const purged = await purgeExpired(database.db)
     expect(purged.sessions).toBeGreaterThan(0)
     expect(purged.resets).toBeGreaterThan(0)
     expect(purged.counters).toBeGreaterThan(0)
+    expect(purged.archives).toBe(1)
+    const archivesLeft = await database.db.select({ id: clubArchives.id }).from(clubArchives)
+    expect(archivesLeft.map((a) => a.id)).toEqual([liveArchive])
+    expect(await database.db.select().from(clubArchiveFiles)).toEqual([])
     const left = await database.db
       .select()
       .from(sessions)
