@@ -3,8 +3,6 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import express from 'express'
 import pg from 'pg'
-import { parseEnv } from '../server/env.ts'
-import { serve } from '../server/index.ts'
 import type { ReplayedRoute } from './load.ts'
 
 /**
@@ -21,6 +19,9 @@ if (mode === 'app') {
   // Production refuses to start without a client build; the API is what is measured.
   const clientDir = mkdtempSync(join(tmpdir(), 'twofold-bench-client-'))
   writeFileSync(join(clientDir, 'index.html'), '<!doctype html><title>Twofold</title>')
+  // Imported here only: the bare server loads none of the app.
+  const { parseEnv } = await import('../server/env.ts')
+  const { serve } = await import('../server/index.ts')
   const serving = await serve(parseEnv(), { clientDir })
   process.on('SIGTERM', () => void serving.close().then(() => process.exit(0)))
 } else if (mode === 'bare') {

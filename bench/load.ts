@@ -109,41 +109,71 @@ export interface Rate {
   p99: number
 }
 
-/**
- * Requests per second that `connections` clients, each sending its next request as soon as the
- * last is answered, get from `url` over `seconds` (after a warm-up); fails on any error or
- * status other than 2xx.
- */
-export async function rate(
-  url: string,
-  {
-    connections = 20,
-    seconds = 10,
-    warmupSeconds = 3,
-    headers = {},
-  }: {
-    connections?: number
-    seconds?: number
-    warmupSeconds?: number
-    headers?: Record<string, string>
-  } = {},
-): Promise<Rate> {
-  await autocannon({ url, connections, duration: warmupSeconds, headers })
-  const result = await autocannon({ url, connections, duration: seconds, headers })
-  if (result.non2xx || result.errors || result.timeouts) {
-    throw new Error(
-      `${url}: ${result.non2xx} non-2xx, ${result.errors} errors, ${result.timeouts} timeouts`,
-    )
-  }
-  return { perSecond: result.requests.average, p99: result.latency.p99 }
+export interface Comparison {
+  subject: Rate
+  baseline: Rate
+  /** subject / baseline of each pair of turns, lowest and highest. */
+  spread: [number, number]
 }
 
-export function reportRate(name: string, subject: Rate, baseline: Rate, baselineName: string) {
-  const fmt = (r: Rate) => `${r.perSecond.toFixed(0)} req/s (p99 ${r.p99} ms)`
+const load = (url: string, connections: number, seconds: number, headers: Record<string, string>) =>
+  autocannon({ url, connections, duration: seconds, headers }).then((result) => {
+    if (result.non2xx || result.errors || result.timeouts) {
+      throw new Error(
+        `${url}: ${result.non2xx} non-2xx, ${result.errors} errors, ${result.timeouts} timeouts`,
+      )
+    }
+    return { perSecond: result.requests.average, p99: result.latency.p99 }
+  })
+
+/**
+ * Requests per second that `connections` clients, each sending its next request as soon as the
+ * last is answered, get from `subject` and from `baseline` (fails on any error or status other
+ * than 2xx). After a warm-up of each, the two take turns in the order ABBA ABBA …, so that a
+ * change in the machine's other load falls on both alike.
+ */
+export async function compareRates(
+  subject: { url: string; headers?: Record<string, string> },
+  baseline: { url: string; headers?: Record<string, string> },
+  { connections = 20, rounds = 3, seconds = 4, warmupSeconds = 3 } = {},
+): Promise<Comparison> {
+  const run = (target: typeof subject, s: number) =>
+    load(target.url, connections, s, target.headers ?? {})
+  await run(subject, warmupSeconds)
+  await run(baseline, warmupSeconds)
+  const subjects: Rate[] = []
+  const baselines: Rate[] = []
+  for (let i = 0; i < rounds; i++) {
+    subjects.push(await run(subject, seconds))
+    baselines.push(await run(baseline, seconds))
+    baselines.push(await run(baseline, seconds))
+    subjects.push(await run(subject, seconds))
+  }
+  const mean = (rates: Rate[]): Rate => ({
+    perSecond: rates.reduce((sum, r) => sum + r.perSecond, 0) / rates.length,
+    p99: Math.max(...rates.map((r) => r.p99)),
+  })
+  const ratios = subjects.map((s, i) => s.perSecond / baselines[i]!.perSecond)
+  return {
+    subject: mean(subjects),
+    baseline: mean(baselines),
+    spread: [Math.min(...ratios), Math.max(...ratios)],
+  }
+}
+
+export function reportRates(
+  name: string,
+  { subject, baseline, spread }: Comparison,
+  baselineName: string,
+) {
+  const fmt = (r: Rate) => `${r.perSecond.toFixed(0)} req/s (p99 up to ${r.p99} ms)`
+  const pct = (x: number) => `${(100 * x).toFixed(0)}%`
   console.log(`\n${name}`)
   console.log(`  measured:  ${fmt(subject)}`)
   console.log(`  baseline (${baselineName}): ${fmt(baseline)}`)
-  console.log(`  ratio (req/s): ${((100 * subject.perSecond) / baseline.perSecond).toFixed(0)}%`)
+  console.log(
+    `  ratio (req/s): ${pct(subject.perSecond / baseline.perSecond)} (turn by turn ${pct(spread[0])}–${pct(spread[1])})`,
+  )
 }
 
 export interface Paced {

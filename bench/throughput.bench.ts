@@ -6,7 +6,13 @@ import { parseEnv } from '../server/env.ts'
 import { createMailer } from '../server/mail/mailer.ts'
 import { demoPassword, demoPeople, seedDemo } from '../seed/demo.ts'
 import { withBenchDatabase } from './harness.ts'
-import { appEnvironment, captureStatements, rate, reportRate, startServer } from './load.ts'
+import {
+  appEnvironment,
+  captureStatements,
+  compareRates,
+  reportRates,
+  startServer,
+} from './load.ts'
 
 const connections = 20
 
@@ -15,7 +21,7 @@ const connections = 20
  * `/api/health` against bare Express + pg answering `select 1`, and the demo club's squads list
  * as its signed-in director against bare Express + pg running the very statements the route
  * ran (captured from one request), in the same order with the same parameters. Each server is a
- * process of its own, the app started as production starts it.
+ * process of its own, the app started as production starts it; the load comes from this one.
  */
 export default async function throughputBench() {
   await withBenchDatabase(async (database) => {
@@ -51,15 +57,22 @@ export default async function throughputBench() {
       BENCH_ROUTES: JSON.stringify([{ path: '/api/clubs/:clubId/squads', statements }]),
     })
     try {
-      const health = await rate(`${web.url}/api/health`, { connections })
-      const select1 = await rate(`${bare.url}/api/health`, { connections })
-      const squads = await rate(`${web.url}${path}`, { connections, headers: { cookie } })
-      const replay = await rate(`${bare.url}${path}`, { connections })
-      reportRate('GET /api/health', health, select1, 'bare Express + pg, select 1')
-      reportRate(
+      reportRates(
+        'GET /api/health',
+        await compareRates(
+          { url: `${web.url}/api/health` },
+          { url: `${bare.url}/api/health` },
+          { connections },
+        ),
+        'bare Express + pg, select 1',
+      )
+      reportRates(
         'GET /api/clubs/:clubId/squads (signed in, demo club)',
-        squads,
-        replay,
+        await compareRates(
+          { url: `${web.url}${path}`, headers: { cookie } },
+          { url: `${bare.url}${path}` },
+          { connections },
+        ),
         'bare Express + pg, the same statements',
       )
     } finally {
