@@ -40,7 +40,7 @@ if (mode === 'app') {
   for (const route of routes) {
     app.get(route.path, async (_req, res) => {
       const rows: unknown[] = []
-      for (const s of route.statements) rows.push((await pool.query(s.text, s.values)).rows)
+      for (const s of route.statements) rows.push((await pool.query(s)).rows)
       res.json(rows)
     })
   }

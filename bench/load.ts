@@ -6,10 +6,13 @@ import autocannon from 'autocannon'
 import type pg from 'pg'
 import { freePort } from '../server/cli/postgres.ts'
 
-/** A GET path of the bare server and the statements it runs, in order, for each request. */
+/**
+ * A GET path of the bare server and the statements it runs, in order, for each request; a
+ * statement the app prepares under a name is prepared under the same name.
+ */
 export interface ReplayedRoute {
   path: string
-  statements: { text: string; values: unknown[] }[]
+  statements: { name?: string; text: string; values: unknown[] }[]
 }
 
 export interface ChildServer {
@@ -85,14 +88,13 @@ export async function captureStatements(
   const statements: ReplayedRoute['statements'] = []
   const original = pool.query
   const recording = function (this: pg.Pool, ...args: unknown[]) {
-    const [first, second] = args as [string | { text: string; values?: unknown[] }, unknown]
-    const text = typeof first === 'string' ? first : first.text
-    const values = Array.isArray(second)
-      ? second
-      : typeof first === 'object' && first.values
-        ? first.values
-        : []
-    statements.push({ text, values })
+    const [first, second] = args as [
+      string | { name?: string; text: string; values?: unknown[] },
+      unknown,
+    ]
+    const config = typeof first === 'string' ? { text: first } : first
+    const values = Array.isArray(second) ? second : (config.values ?? [])
+    statements.push({ ...(config.name ? { name: config.name } : {}), text: config.text, values })
     return (original as (...a: unknown[]) => unknown).apply(this, args)
   }
   pool.query = recording as typeof pool.query
