@@ -118,8 +118,16 @@ export interface Comparison {
   spread: [number, number]
 }
 
+/** What a browser sends with every request, as the app sees it (cookies apart). */
+const browserHeaders = { 'accept-encoding': 'gzip, deflate, br, zstd' }
+
 const load = (url: string, connections: number, seconds: number, headers: Record<string, string>) =>
-  autocannon({ url, connections, duration: seconds, headers }).then((result) => {
+  autocannon({
+    url,
+    connections,
+    duration: seconds,
+    headers: { ...browserHeaders, ...headers },
+  }).then((result) => {
     if (result.non2xx || result.errors || result.timeouts) {
       throw new Error(
         `${url}: ${result.non2xx} non-2xx, ${result.errors} errors, ${result.timeouts} timeouts`,
@@ -130,8 +138,8 @@ const load = (url: string, connections: number, seconds: number, headers: Record
 
 /**
  * Requests per second that `connections` clients, each sending its next request as soon as the
- * last is answered, get from `subject` and from `baseline` (fails on any error or status other
- * than 2xx). After a warm-up of each, the two take turns in the order ABBA ABBA …, so that a
+ * last is answered and each saying, as browsers do, which compressions it accepts, get from
+ * `subject` and from `baseline` (fails on any error or status other than 2xx). After a warm-up of each, the two take turns in the order ABBA ABBA …, so that a
  * change in the machine's other load falls on both alike.
  */
 export async function compareRates(
