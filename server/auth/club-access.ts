@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import type { RequestHandler } from 'express'
 import { z } from 'zod'
 import type { Role } from '../../shared/domain/club.ts'
@@ -35,15 +35,27 @@ const clubIdSchema = z.uuid()
  * clinician only inside the visit window. Another club's id answers 404, as if it did not exist.
  */
 export function requireClubAccess(db: Db, sessions: Sessions): RequestHandler {
+  // Every club request asks it: its SQL is built once (sent unnamed, as in lucia.ts).
+  const membershipOf = db
+    .select({
+      role: memberships.role,
+      accessStartsOn: memberships.accessStartsOn,
+      accessEndsOn: memberships.accessEndsOn,
+    })
+    .from(memberships)
+    .where(
+      and(
+        eq(memberships.clubId, sql.placeholder('clubId')),
+        eq(memberships.userId, sql.placeholder('userId')),
+      ),
+    )
+    .prepare('')
   return async (req, _res, next) => {
     if (!req.auth) throw unauthenticated()
     const parsed = clubIdSchema.safeParse(req.params.clubId)
     if (!parsed.success) throw new AppError(404, 'not_found', 'No such club.')
     const clubId = parsed.data
-    const [membership] = await db
-      .select()
-      .from(memberships)
-      .where(and(eq(memberships.clubId, clubId), eq(memberships.userId, req.auth.user.id)))
+    const [membership] = await membershipOf.execute({ clubId, userId: req.auth.user.id })
     if (!membership) throw new AppError(404, 'not_found', 'No such club.')
     if (
       membership.role === 'clinician' &&

@@ -1,8 +1,8 @@
-import { and, count, eq, inArray, isNull } from 'drizzle-orm'
+import { and, eq, inArray, sql } from 'drizzle-orm'
 import { squadInputSchema, type SquadInput, type SquadView } from '../../shared/schemas/squads.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, coachSquads, memberships, squads } from '../db/schema.ts'
+import { coachSquads, memberships, squads } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { assertCanReadSquad, readableSquadIds } from './scope.ts'
 
@@ -33,8 +33,21 @@ export async function assignCoach(db: DbOrTx, clubId: string, squadId: string, u
 export async function listSquads(db: DbOrTx, access: ClubAccess): Promise<SquadView[]> {
   const readable = await readableSquadIds(db, access)
   if (readable !== 'all' && readable.length === 0) return []
-  const rows = await db
-    .select()
+  // One statement: the coaches and the counts come with each squad. Written out, because in a
+  // query of one table Drizzle leaves column names unqualified, which inside a subquery would
+  // name the subquery's own columns.
+  return db
+    .select({
+      id: squads.id,
+      clubId: squads.clubId,
+      name: squads.name,
+      level: squads.level,
+      discipline: squads.discipline,
+      coachIds: sql<string[]>`array(select c.user_id from coach_squads c
+        where c.club_id = squads.club_id and c.squad_id = squads.id order by c.user_id)`,
+      athleteCount: sql<number>`(select count(*)::int from athletes a
+        where a.club_id = squads.club_id and a.squad_id = squads.id and a.archived_at is null)`,
+    })
     .from(squads)
     .where(
       and(
@@ -43,21 +56,6 @@ export async function listSquads(db: DbOrTx, access: ClubAccess): Promise<SquadV
       ),
     )
     .orderBy(squads.name)
-  const coaches = await db.select().from(coachSquads).where(eq(coachSquads.clubId, access.clubId))
-  const counts = await db
-    .select({ squadId: athletes.squadId, n: count() })
-    .from(athletes)
-    .where(and(eq(athletes.clubId, access.clubId), isNull(athletes.archivedAt)))
-    .groupBy(athletes.squadId)
-  return rows.map((s) => ({
-    id: s.id,
-    clubId: s.clubId,
-    name: s.name,
-    level: s.level,
-    discipline: s.discipline,
-    coachIds: coaches.filter((c) => c.squadId === s.id).map((c) => c.userId),
-    athleteCount: counts.find((c) => c.squadId === s.id)?.n ?? 0,
-  }))
 }
 
 export async function getSquad(db: DbOrTx, access: ClubAccess, squadId: string) {

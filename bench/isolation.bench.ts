@@ -1,0 +1,119 @@
+import { spawn } from 'node:child_process'
+import { performance } from 'node:perf_hooks'
+import { and, eq } from 'drizzle-orm'
+import { hashPassword } from '../server/auth/password.ts'
+import { auditRuns, users } from '../server/db/schema.ts'
+import { auditBenchAsOf, buildAuditClub } from './audit.bench.ts'
+import { withBenchDatabase } from './harness.ts'
+import { appEnvironment, p99, paced, startServer } from './load.ts'
+
+const password = 'bench-isolation-2026'
+const audits = 8
+/** A steady trickle of health checks, as monitoring and a few people would send. */
+const perSecond = 200
+const idleMs = 1500
+
+interface Window {
+  from: number
+  to: number
+}
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
+
+/**
+ * `/api/health` on a web process (target: p99 at most 2× idle) while a worker, in a process of
+ * its own as production runs it, computes audits of a club of 1,000 athletes × 300 elements
+ * asked for through the API; against the same checks, sent at the same steady rate, while the
+ * worker is idle.
+ */
+export default async function isolationBench() {
+  await withBenchDatabase(async (database) => {
+    const db = database.db
+    const { access } = await buildAuditClub(db)
+    await db
+      .update(users)
+      .set({ passwordHash: await hashPassword(password) })
+      .where(eq(users.id, access.userId))
+    const env = appEnvironment(database.url)
+    const web = await startServer('app', env)
+    const worker = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
+      env: { PATH: process.env.PATH ?? '', PUBLIC_URL: web.url, ...env },
+      stdio: ['ignore', 'pipe', 'inherit'],
+    })
+    const workerExited = new Promise<void>((resolve) => worker.once('exit', () => resolve()))
+    await new Promise<void>((resolve, reject) => {
+      worker.once('exit', (code) => reject(new Error(`the worker exited (${code})`)))
+      worker.stdout.on('data', (chunk: Buffer) => {
+        if (chunk.toString().includes('worker started')) resolve()
+      })
+    })
+    try {
+      const signIn = await fetch(`${web.url}/api/auth/sign-in`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ email: 'audit@bench.invalid', password }),
+      })
+      const cookie = signIn.headers
+        .getSetCookie()
+        .map((c) => c.split(';')[0]!)
+        .find((c) => c.startsWith('twofold_session='))!
+
+      const checks = paced(`${web.url}/api/health`, perSecond)
+      await sleep(3000)
+      // Idle stretches and audits take turns, so that both see the same weather on the machine.
+      const idle: Window[] = []
+      const busy: Window[] = []
+      for (let i = 0; i < audits; i++) {
+        const from = performance.now()
+        await sleep(idleMs)
+        idle.push({ from, to: performance.now() })
+        const res = await fetch(`${web.url}/api/clubs/${access.clubId}/audits`, {
+          method: 'POST',
+          headers: { 'content-type': 'application/json', cookie },
+          body: JSON.stringify({ squadId: null, asOf: auditBenchAsOf }),
+        })
+        if (res.status !== 202) throw new Error(`audit not accepted: ${res.status}`)
+        const { id } = (await res.json()) as { id: string }
+        let started = 0
+        for (;;) {
+          const [run] = await db
+            .select({ status: auditRuns.status, phase: auditRuns.phase })
+            .from(auditRuns)
+            .where(and(eq(auditRuns.clubId, access.clubId), eq(auditRuns.id, id)))
+          if (!started && run!.phase !== 'queued') started = performance.now()
+          if (run!.status === 'failed') throw new Error('the audit failed')
+          if (run!.status === 'done') {
+            busy.push({ from: started, to: performance.now() })
+            break
+          }
+          await sleep(20)
+        }
+        // The worker settles (its last writes, a collection) before the next idle stretch.
+        await sleep(500)
+      }
+      await checks.stop()
+
+      const failed = checks.responses.filter((r) => r.status !== 200).length
+      if (failed) throw new Error(`${failed} health checks did not answer 200`)
+      // A check counts for a stretch when it was in flight at any moment of it.
+      const within = (windows: Window[]) =>
+        checks.responses
+          .filter((r) => windows.some((w) => r.at >= w.from && r.at - r.ms <= w.to))
+          .map((r) => r.ms)
+      const idleMs99 = p99(within(idle))
+      const busyMs99 = p99(within(busy))
+      const seconds = busy.map((w) => ((w.to - w.from) / 1000).toFixed(1)).join(', ')
+      console.log(`\nGET /api/health on the web process, ${perSecond} checks a second`)
+      console.log(
+        `  while ${audits} audits of 1,000 × 300 ran on a worker process (${seconds} s): p99 ${busyMs99.toFixed(1)} ms (${within(busy).length} checks)`,
+      )
+      console.log(
+        `  baseline (the worker idle, in between): p99 ${idleMs99.toFixed(1)} ms (${within(idle).length} checks)`,
+      )
+      console.log(`  ratio (p99): ${(busyMs99 / idleMs99).toFixed(2)}×`)
+    } finally {
+      worker.kill('SIGTERM')
+      await Promise.all([web.stop(), workerExited])
+    }
+  })
+}
