@@ -1,9 +1,13 @@
+import { setPriority } from 'node:os'
 import { pathToFileURL } from 'node:url'
 import { createDatabase } from './db/client.ts'
 import { EnvError, jobSettingsOf, parseEnv } from './env.ts'
 import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { createMailer } from './mail/mailer.ts'
+
+/** How much lower than the web processes a worker runs (nice 10 of 19). */
+const workerNiceness = 10
 
 /**
  * A worker process: does the audits and sends the mail that web processes put on the queues.
@@ -12,6 +16,13 @@ import { createMailer } from './mail/mailer.ts'
  */
 export async function runWorker() {
   const env = parseEnv()
+  // Where a worker shares cores with web processes, the requests go first: an audit can wait a
+  // moment, a person at a tablet should not. Raising one's own niceness needs no privilege.
+  try {
+    setPriority(workerNiceness)
+  } catch {
+    // A system that refuses leaves the worker at normal priority.
+  }
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
   const logger = createLogger(env)
   const database = createDatabase(env.DATABASE_URL, logger)
