@@ -2,7 +2,7 @@ import { defineConfig } from 'drizzle-kit'
 
 export default defineConfig({
   dialect: 'postgresql',
-  schema: './server/db/schema.ts',
+  schema: ['./server/db/schema.ts', './server/db/schema-visits.ts'],
   out: './drizzle',
   casing: 'snake_case',
   dbCredentials: { url: process.env.DATABASE_URL ?? 'postgres://localhost/twofold' },

@@ -15,6 +15,7 @@ import { addMembership, createUser } from '../server/services/members.ts'
 import { assignCoach, createSquad } from '../server/services/squads.ts'
 import { demoClubElements } from './demo-elements.ts'
 import { demoHistory } from './demo-progress.ts'
+import { demoVisit } from './demo-visits.ts'
 import { familyNames, givenNames } from './names.ts'
 
 /** The one password of every demo sign-in; shown by `npm start` and in the README. */
@@ -84,7 +85,6 @@ export interface SeedOptions {
 }
 
 const isoDate = (d: Date) => d.toISOString().slice(0, 10)
-const addDays = (d: Date, days: number) => new Date(d.getTime() + days * 86_400_000)
 
 /**
  * Loads the demo club through the same services the API uses, in one transaction. The same
@@ -138,14 +138,8 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
         password: demoPassword,
       })
       userIds.set(person.email, user.id)
-      const window =
-        person.role === 'clinician'
-          ? {
-              accessStartsOn: isoDate(addDays(today, -7)),
-              accessEndsOn: isoDate(addDays(today, 21)),
-            }
-          : {}
-      await addMembership(tx, { clubId: club.id, userId: user.id, role: person.role, ...window })
+      // The clinician's access comes from the demo visit below, covering one squad.
+      await addMembership(tx, { clubId: club.id, userId: user.id, role: person.role })
       for (const squadName of person.squads ?? []) {
         await assignCoach(tx, club.id, squadIds.get(squadName)!, user.id)
       }
@@ -155,6 +149,14 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       await createElement(tx, { clubId: club.id, userId: director, role: 'director' }, element)
     }
     const history = await demoProgress(tx, club.id, today, rng, userIds, squadIds)
+    await demoVisit(tx, {
+      clubId: club.id,
+      today,
+      squadId: squadIds.get('Kites')!,
+      clinicianId: userIds.get('clinician@demo.example')!,
+      directorId: director,
+      coachId: userIds.get('coach@demo.example')!,
+    })
     const audits = await demoAudits(
       tx,
       { clubId: club.id, userId: director, role: 'director' },

@@ -39,6 +39,8 @@ export const envSchema = z.object({
   JOB_POLL_SECONDS: z.coerce.number().min(0.5).default(1),
   /** How often workers expire the jobs of dead workers. */
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
+  /** How many days before a recommendation's due date its reminder goes to the coaches. */
+  RECOMMENDATION_REMINDER_DAYS: z.coerce.number().int().min(1).max(60).default(3),
   /**
    * Behind a TLS-terminating proxy: which hops' X-Forwarded-* to believe. `true` is one proxy in
    * front (the client address is the last one that proxy added, never one the client wrote); a

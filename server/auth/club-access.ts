@@ -2,9 +2,10 @@ import { and, eq, sql } from 'drizzle-orm'
 import type { RequestHandler } from 'express'
 import { z } from 'zod'
 import type { Role } from '../../shared/domain/club.ts'
-import { todayIso, windowOpen } from '../../shared/domain/access.ts'
+import { todayIso } from '../../shared/domain/access.ts'
 import type { Db } from '../db/client.ts'
 import { memberships } from '../db/schema.ts'
+import { clinicianVisitDays } from '../services/visit-access.ts'
 import { AppError } from '../http/errors.ts'
 import type { Sessions } from './sessions.ts'
 
@@ -32,16 +33,12 @@ const clubIdSchema = z.uuid()
 
 /**
  * Deny by default: the person must be signed in and a member of the club in the path; a
- * clinician only inside the visit window. Another club's id answers 404, as if it did not exist.
+ * clinician only during one of their visits (see visit-access.ts). Another club's id answers 404, as if it did not exist.
  */
 export function requireClubAccess(db: Db, sessions: Sessions): RequestHandler {
   // Every club request asks it: its SQL is built once (sent unnamed, as in lucia.ts).
   const membershipOf = db
-    .select({
-      role: memberships.role,
-      accessStartsOn: memberships.accessStartsOn,
-      accessEndsOn: memberships.accessEndsOn,
-    })
+    .select({ role: memberships.role })
     .from(memberships)
     .where(
       and(
@@ -57,15 +54,19 @@ export function requireClubAccess(db: Db, sessions: Sessions): RequestHandler {
     const clubId = parsed.data
     const [membership] = await membershipOf.execute({ clubId, userId: req.auth.user.id })
     if (!membership) throw new AppError(404, 'not_found', 'No such club.')
-    if (
-      membership.role === 'clinician' &&
-      !windowOpen(todayIso(), membership.accessStartsOn, membership.accessEndsOn)
-    ) {
-      throw new AppError(
-        403,
-        'access_window_closed',
-        `Your visit window runs from ${membership.accessStartsOn} to ${membership.accessEndsOn}; the club's data is open to you only then.`,
-      )
+    if (membership.role === 'clinician') {
+      // A clinician works in the club only during one of their visits.
+      const days = await clinicianVisitDays(db, clubId, req.auth.user.id, todayIso())
+      if (!days.open) {
+        const when = days.next
+          ? `Your next visit runs from ${days.next.firstDay} to ${days.next.lastDay}`
+          : 'You have no visit scheduled'
+        throw new AppError(
+          403,
+          'access_window_closed',
+          `${when}; the club's data is open to you only during a visit.`,
+        )
+      }
     }
     if (req.auth.session.clubId !== clubId) {
       await sessions.setClub(req.auth.session.id, clubId)

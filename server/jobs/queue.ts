@@ -7,6 +7,7 @@ export const queues = {
   auditRun: 'audit-run',
   mail: 'mail',
   clubArchive: 'club-archive',
+  recommendationReminder: 'recommendation-reminder',
 } as const
 export type QueueName = (typeof queues)[keyof typeof queues]
 
@@ -50,6 +51,12 @@ export function queueOptions(settings: JobSettings) {
       retryBackoff: true,
       expireInSeconds: archiveTimeoutSeconds,
     },
+    [queues.recommendationReminder]: {
+      retryLimit: 5,
+      retryDelay: 60,
+      retryBackoff: true,
+      expireInSeconds: 60,
+    },
   } satisfies Record<QueueName, PgBoss.Queue extends infer Q ? Omit<Q, 'name'> : never>
 }
 
@@ -84,9 +91,16 @@ export function createJobQueue(db: DbOrTx, settings: JobSettings = defaultJobSet
   const options = queueOptions(settings)
   let waker: ((queue: QueueName) => void) | undefined
   return {
-    /** Adds a job in `tx`'s transaction (or on its own); answers the job's id. */
-    async send(tx: DbOrTx, queue: QueueName, data: object) {
-      const id = await boss.send(queue, data, { ...options[queue], db: jobExecutor(tx) })
+    /**
+     * Adds a job in `tx`'s transaction (or on its own); answers the job's id. `startAfter` holds
+     * it back until then (a reminder on its day).
+     */
+    async send(tx: DbOrTx, queue: QueueName, data: object, timing: { startAfter?: Date } = {}) {
+      const id = await boss.send(queue, data, {
+        ...options[queue],
+        ...timing,
+        db: jobExecutor(tx),
+      })
       // A worker in this process looks a moment later, once the caller's transaction committed.
       if (waker) setTimeout(() => waker?.(queue), 30).unref()
       return id!

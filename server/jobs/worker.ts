@@ -5,7 +5,8 @@ import { deliverMail } from '../mail/outbox.ts'
 import type { Mailer } from '../mail/mailer.ts'
 import { processAuditRun } from '../services/audit-runs.ts'
 import { processClubArchive } from '../services/club-archives.ts'
-import { queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
+import { remindRecommendation, type ReminderJob } from '../services/recommendation-mail.ts'
+import { createJobQueue, queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
 
 export interface JobWorkerOptions {
   connectionString: string
@@ -23,7 +24,7 @@ export interface JobWorker {
 }
 
 /**
- * Takes jobs from the queues and does them: audits, club archives and mail. Any number of workers, in any
+ * Takes jobs from the queues and does them: audits, club archives, reminders and mail. Any number of workers, in any
  * number of processes, share the queues; a job whose worker died is expired by the others'
  * maintenance and retried.
  */
@@ -76,6 +77,19 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
         )
         throw err
       }
+    },
+  )
+  // Reminders put mail on the queue in their own transaction.
+  const sender = createJobQueue(db, settings)
+  sender.attachWorker((queue) => {
+    const id = ids[queue]
+    if (id) boss.notifyWorker(id)
+  })
+  ids[queues.recommendationReminder] = await boss.work<ReminderJob>(
+    queues.recommendationReminder,
+    workOptions,
+    async ([job]) => {
+      await remindRecommendation(db, sender, job!.data)
     },
   )
   return {

@@ -7,6 +7,7 @@ import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
 import { squadRoutes } from './squads.ts'
+import { visitRoutes } from './visits.ts'
 
 /** Every route under /api/clubs/:clubId. Add a resource's routes here. */
 export function allClubRoutes(ctx: AppContext): ClubRoute[] {
@@ -18,5 +19,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...athleteRoutes(ctx),
     ...auditRoutes(ctx),
     ...archiveRoutes(ctx),
+    ...visitRoutes(ctx),
   ]
 }

@@ -1,6 +1,6 @@
 import { and, eq, gt, isNull, ne, sql } from 'drizzle-orm'
 import type { Me, MembershipView } from '../../shared/schemas/auth.ts'
-import { todayIso, windowOpen } from '../../shared/domain/access.ts'
+import { todayIso } from '../../shared/domain/access.ts'
 import { hashPassword, verifyPassword } from '../auth/password.ts'
 import { passwordProblem } from '../auth/password-policy.ts'
 import { hashToken, newToken } from '../auth/tokens.ts'
@@ -9,6 +9,7 @@ import type { DbOrTx } from '../db/client.ts'
 import { clubs, memberships, passwordResets, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
+import { clinicianVisitDays } from './visit-access.ts'
 
 export const resetLifetimeMs = 2 * 3_600_000
 
@@ -79,10 +80,19 @@ export async function membershipViews(db: DbOrTx, userId: string): Promise<Membe
     .where(eq(memberships.userId, userId))
     .orderBy(clubs.name)
   const today = todayIso()
-  return rows.map((r) => ({
-    ...r,
-    accessOpen: r.role !== 'clinician' || windowOpen(today, r.accessStartsOn, r.accessEndsOn),
-  }))
+  // A clinician's dates are those of their visit open today, else of the next one to come.
+  return Promise.all(
+    rows.map(async (r) => {
+      if (r.role !== 'clinician') return { ...r, accessOpen: true }
+      const days = await clinicianVisitDays(db, r.clubId, userId, today)
+      return {
+        ...r,
+        accessStartsOn: days.next?.firstDay ?? null,
+        accessEndsOn: days.next?.lastDay ?? null,
+        accessOpen: days.open,
+      }
+    }),
+  )
 }
 
 export async function describeMe(

@@ -31,6 +31,7 @@ import {
   pagedCsvFile,
   type ArchiveFile,
 } from './archive-files.ts'
+import { visitArchiveFiles } from './archive-visits.ts'
 
 type AthleteRow = typeof athletes.$inferSelect & { squad: string }
 
@@ -103,6 +104,7 @@ export async function archiveFiles(
         .where(ofClub(coachSquads))
         .orderBy(asc(coachSquads.squadId), asc(coachSquads.userId)),
     ),
+    ...visitArchiveFiles(db, clubId),
     pagedCsvFile<AthleteRow>({
       name: 'athletes.csv',
       phase: 'athletes',

@@ -31,6 +31,7 @@ import {
   sessions,
   squads,
 } from '../db/schema.ts'
+import { recommendationEvents, recommendations, visitSquads, visits } from '../db/schema-visits.ts'
 import { AppError, notFound } from '../http/errors.ts'
 
 const mismatch = (message: string) =>
@@ -59,6 +60,12 @@ export async function eraseAthlete(
       throw mismatch(`Type “${athleteFullName(athlete)}” exactly to erase this athlete.`)
     const ofAthlete = <T extends typeof progressRecords | typeof progressEvents>(table: T) =>
       and(eq(table.clubId, access.clubId), eq(table.athleteId, athleteId))
+    // Recommendations naming the athlete go with them (their history by its cascade).
+    await tx
+      .delete(recommendations)
+      .where(
+        and(eq(recommendations.clubId, access.clubId), eq(recommendations.athleteId, athleteId)),
+      )
     // Records name their newest event: they go first, then the events, then the athlete.
     await tx.delete(progressRecords).where(ofAthlete(progressRecords))
     await tx.delete(progressEvents).where(ofAthlete(progressEvents))
@@ -101,6 +108,10 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
     if (!confirmationMatches(confirmName, club.name))
       throw mismatch(`Type “${club.name}” exactly to delete the club.`)
     for (const table of [
+      recommendationEvents,
+      recommendations,
+      visitSquads,
+      visits,
       clubArchiveFiles,
       clubArchives,
       progressRecords,

@@ -24,6 +24,8 @@ import {
 } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
+import { visits } from '../db/schema-visits.ts'
+import { addVisitCoveringEverySquad, hasVisit } from './visit-access.ts'
 import { assertExistingPassword, assertStrongPassword, findUserByEmail } from './accounts.ts'
 
 export const invitationLifetimeMs = 7 * 24 * 3_600_000
@@ -57,8 +59,16 @@ export interface NewMembership {
   accessEndsOn?: string | null
 }
 
+/** Adds a member; a clinician given dates gets a visit of those dates covering every squad. */
 export async function addMembership(db: DbOrTx, input: NewMembership) {
   const [membership] = await db.insert(memberships).values(input).returning()
+  if (input.role === 'clinician' && input.accessStartsOn && input.accessEndsOn)
+    await addVisitCoveringEverySquad(db, {
+      clubId: input.clubId,
+      userId: input.userId,
+      firstDay: input.accessStartsOn,
+      lastDay: input.accessEndsOn,
+    })
   return membership!
 }
 
@@ -126,6 +136,20 @@ export async function updateMembership(
       .update(memberships)
       .set({ role: input.role, ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn) })
       .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, userId)))
+    // Someone made clinician here for the first time gets their dates as a visit of every
+    // squad; later dates are the Visits screen's to change.
+    if (
+      input.role === 'clinician' &&
+      input.accessStartsOn &&
+      input.accessEndsOn &&
+      !(await hasVisit(tx, access.clubId, userId))
+    )
+      await addVisitCoveringEverySquad(tx, {
+        clubId: access.clubId,
+        userId,
+        firstDay: input.accessStartsOn,
+        lastDay: input.accessEndsOn,
+      })
     if (input.role !== 'coach') {
       await tx
         .delete(coachSquads)
@@ -197,6 +221,7 @@ async function sendInvitation(
   },
   token: string,
   origin: string,
+  extraLines: string[] = [],
 ) {
   const [club] = await tx.select().from(clubs).where(eq(clubs.id, invitation.clubId))
   const window =
@@ -214,6 +239,7 @@ async function sendInvitation(
       '',
       `${club!.name} invites you to join its Twofold space as ${roleLabels[invitation.role]}.`,
       ...window,
+      ...extraLines,
       '',
       'Open this link within 7 days to accept:',
       '',
@@ -224,34 +250,27 @@ async function sendInvitation(
   })
 }
 
-export async function createInvitation(
-  ctx: AppContext,
-  access: ClubAccess,
-  input: InvitationInput,
-  origin: string,
-) {
-  const existing = await findUserByEmail(ctx.db, input.email)
+/** Refuses an address that is already a member of the club or has a pending invitation. */
+export async function assertInvitable(db: DbOrTx, clubId: string, email: string) {
+  const existing = await findUserByEmail(db, email)
   if (existing) {
-    const [member] = await ctx.db
+    const [member] = await db
       .select()
       .from(memberships)
-      .where(and(eq(memberships.clubId, access.clubId), eq(memberships.userId, existing.id)))
+      .where(and(eq(memberships.clubId, clubId), eq(memberships.userId, existing.id)))
     if (member) {
-      throw new AppError(
-        409,
-        'already_member',
-        `${input.email} is already a member of this club.`,
-        [{ path: 'email', message: 'Already a member of this club.' }],
-      )
+      throw new AppError(409, 'already_member', `${email} is already a member of this club.`, [
+        { path: 'email', message: 'Already a member of this club.' },
+      ])
     }
   }
-  const pending = await ctx.db
+  const pending = await db
     .select()
     .from(invitations)
     .where(
       and(
-        eq(invitations.clubId, access.clubId),
-        eq(sql`lower(${invitations.email})`, input.email),
+        eq(invitations.clubId, clubId),
+        eq(sql`lower(${invitations.email})`, email),
         isNull(invitations.acceptedAt),
         isNull(invitations.withdrawnAt),
         gt(invitations.expiresAt, new Date()),
@@ -261,34 +280,84 @@ export async function createInvitation(
     throw new AppError(
       409,
       'already_invited',
-      `${input.email} has a pending invitation: resend or withdraw it.`,
+      `${email} has a pending invitation: resend or withdraw it.`,
       [{ path: 'email', message: 'Already invited: resend or withdraw that invitation.' }],
     )
   }
+}
+
+/**
+ * Writes an invitation and its link and puts the mail on its way, all in `tx`; `extraLines`
+ * add to the mail (a visit's squads).
+ */
+export async function insertInvitation(
+  ctx: AppContext,
+  tx: DbOrTx,
+  access: ClubAccess,
+  input: InvitationInput,
+  origin: string,
+  extraLines: string[] = [],
+) {
   const token = newToken()
   const expiresAt = new Date(Date.now() + invitationLifetimeMs)
-  const row = await ctx.db.transaction(async (tx) => {
-    const [created] = await tx
-      .insert(invitations)
-      .values({
-        clubId: access.clubId,
-        email: input.email,
-        role: input.role,
-        ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
-        expiresAt,
-        invitedBy: access.userId,
-      })
-      .returning()
-    await tx.insert(invitationTokens).values({
-      tokenHash: hashToken(token),
+  const [created] = await tx
+    .insert(invitations)
+    .values({
       clubId: access.clubId,
-      invitationId: created!.id,
+      email: input.email,
+      role: input.role,
+      ...windowFor(input.role, input.accessStartsOn, input.accessEndsOn),
       expiresAt,
+      invitedBy: access.userId,
     })
-    await sendInvitation(ctx, tx, created!, token, origin)
-    return created!
+    .returning()
+  await tx.insert(invitationTokens).values({
+    tokenHash: hashToken(token),
+    clubId: access.clubId,
+    invitationId: created!.id,
+    expiresAt,
   })
+  await sendInvitation(ctx, tx, created!, token, origin, extraLines)
+  return created!
+}
+
+export async function createInvitation(
+  ctx: AppContext,
+  access: ClubAccess,
+  input: InvitationInput,
+  origin: string,
+) {
+  await assertInvitable(ctx.db, access.clubId, input.email)
+  const row = await ctx.db.transaction((tx) => insertInvitation(ctx, tx, access, input, origin))
   return (await listInvitations(ctx.db, access.clubId)).find((i) => i.id === row.id)!
+}
+
+/**
+ * A clinician accepting: the visits that named the invitation are theirs; without one, the
+ * invitation's dates become a visit covering every squad (an invitation from the Members screen).
+ */
+async function linkInvitedVisits(
+  tx: DbOrTx,
+  invitation: {
+    clubId: string
+    id: string
+    accessStartsOn: string | null
+    accessEndsOn: string | null
+  },
+  userId: string,
+) {
+  const linked = await tx
+    .update(visits)
+    .set({ clinicianId: userId })
+    .where(and(eq(visits.clubId, invitation.clubId), eq(visits.invitationId, invitation.id)))
+    .returning({ id: visits.id })
+  if (linked.length === 0 && invitation.accessStartsOn && invitation.accessEndsOn)
+    await addVisitCoveringEverySquad(tx, {
+      clubId: invitation.clubId,
+      userId,
+      firstDay: invitation.accessStartsOn,
+      lastDay: invitation.accessEndsOn,
+    })
 }
 
 async function openInvitation(db: DbOrTx, clubId: string, id: string) {
@@ -465,6 +534,7 @@ export async function acceptInvitation(
           accessEndsOn: invitation.accessEndsOn,
         },
       })
+    if (invitation.role === 'clinician') await linkInvitedVisits(tx, invitation, user.id)
     return { user, clubId: invitation.clubId }
   })
 }

@@ -3,14 +3,21 @@ import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, coachSquads, squads } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
+import { todayIso } from '../../shared/domain/access.ts'
+import { clinicianSquadIds } from './visit-access.ts'
 
 // Squad-level scoping on top of the club check: directors see and change every squad; coaches
-// only the squads assigned to them; clinicians read every squad during their visit window and
+// only the squads assigned to them; clinicians read the squads their open visits cover and
 // change none.
 
-/** The squads the person may read: every one, or the ids assigned to a coach. */
+/**
+ * The squads the person may read: every one, the ids assigned to a coach, or those covered by
+ * a clinician's visits open today.
+ */
 export async function readableSquadIds(db: DbOrTx, access: ClubAccess): Promise<'all' | string[]> {
-  if (access.role === 'director' || access.role === 'clinician') return 'all'
+  if (access.role === 'director') return 'all'
+  if (access.role === 'clinician')
+    return clinicianSquadIds(db, access.clubId, access.userId, todayIso())
   if (access.role !== 'coach') return []
   const rows = await db
     .select({ squadId: coachSquads.squadId })

@@ -119,6 +119,18 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/views/NoAccessView.vue'),
     meta: { title: 'No access' },
   },
+  {
+    path: '/visits',
+    name: 'visits',
+    component: () => import('@/views/VisitsView.vue'),
+    meta: { title: 'Visits', roles: ['director'] },
+  },
+  {
+    path: '/visit',
+    name: 'visit',
+    component: () => import('@/views/VisitView.vue'),
+    meta: { title: 'Your visit', roles: ['clinician'] },
+  },
   ...progressRoutes,
   ...auditRoutes,
   {

@@ -16,12 +16,15 @@ export interface NavItem {
 export function navigationItems(me: Me | null, membership: MembershipView | null): NavItem[] {
   if (!me || !membership || !membership.accessOpen) return []
   const items: NavItem[] = [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
+  if (membership.role === 'clinician')
+    items.push({ key: 'visit', label: 'Your visit', to: { name: 'visit' } })
   // Board members see aggregates only; the catalogue is the working tool of the gym floor.
   if (membership.role !== 'board') {
     items.push({ key: 'catalogue', label: 'Catalogue', to: { name: 'catalogue' } })
   }
   items.push(...progressNavItems(membership.role), ...auditNavItems(membership.role))
   if (membership.role === 'director') {
+    items.push({ key: 'visits', label: 'Visits', to: { name: 'visits' } })
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })
     items.push({ key: 'club-settings', label: 'Club', to: { name: 'club-settings' } })
   }

@@ -12,10 +12,13 @@ import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { processClubArchive, submitClubArchive } from '../../server/services/club-archives.ts'
 import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
+import { createSquad } from '../../server/services/squads.ts'
+import { cancelVisit, createVisit, listVisits } from '../../server/services/visits.ts'
 import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { addDays, clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
+import { recommend, scheduleVisit } from '../support/visits.ts'
 
 // Every route under /api/clubs/:clubId, with who may use it and what a permitted request gets.
 // A route added to the server without a row here fails the first test; a row here without a
@@ -480,6 +483,58 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async (f) => ({ path: `/archives/${await builtArchive(f)}/download` }),
   },
+  'GET /visits': {
+    allow: ['director', 'clinician'],
+    ok: 200,
+    request: async () => ({ path: '/visits' }),
+  },
+  'POST /visits': {
+    allow: ['director'],
+    ok: 201,
+    request: async (f) => ({
+      path: '/visits',
+      body: {
+        clinicianId: f.people.clinician.id,
+        firstDay: addDays(1),
+        lastDay: addDays(3),
+        squadIds: [f.squad.id],
+      },
+    }),
+  },
+  'PATCH /visits/:visitId': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/visits/${(await scheduleVisit(f.t.context, f)).id}`,
+      body: { agenda: 'Vault runs first' },
+    }),
+  },
+  'POST /visits/:visitId/cancel': {
+    allow: ['director'],
+    ok: 200,
+    request: async (f) => ({ path: `/visits/${(await scheduleVisit(f.t.context, f)).id}/cancel` }),
+  },
+  'GET /recommendations': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/recommendations' }),
+  },
+  'POST /recommendations': {
+    allow: ['clinician'],
+    ok: 201,
+    request: async (f) => ({
+      path: '/recommendations',
+      body: { squadId: f.squad.id, text: 'Two more landings a session.', dueOn: addDays(7) },
+    }),
+  },
+  'POST /recommendations/:id/status': {
+    allow: ['coach'],
+    ok: 200,
+    request: async (f) => ({
+      path: `/recommendations/${(await recommend(f.t.context, f)).id}/status`,
+      body: { status: 'accepted' },
+    }),
+  },
   'GET /board-summary': {
     allow: ['director', 'board'],
     ok: 200,
@@ -565,5 +620,66 @@ describe('club API access matrix', () => {
     const res = await agents.director.get(`/api/clubs/${f.club.id}/no-such-route`)
     expect(res.status).toBe(404)
     expect(res.body.error.message).toMatch(/No API route/)
+  })
+})
+
+describe('a clinician reads only the squads their visit covers, only during it', () => {
+  // Dates relative to today: yesterday to tomorrow is open; from tomorrow on is not yet.
+  it('refuses every club route outside the visit, naming the next visit', async () => {
+    const club = await clubWithPeople(database.db, 'later')
+    const user = await createUser(database.db, {
+      email: 'later-visitor@test.example',
+      name: 'Later visitor',
+      password: testPassword,
+    })
+    await addMembership(database.db, { clubId: club.club.id, userId: user.id, role: 'clinician' })
+    const director = {
+      clubId: club.club.id,
+      userId: club.people.director.id,
+      role: 'director' as const,
+    }
+    const body = { firstDay: addDays(2), lastDay: addDays(4), squadIds: [club.squad.id] }
+    await createVisit(t.context, director, { clinicianId: user.id, ...body }, 'http://t.test')
+    const agent = await signedIn(t, 'later-visitor@test.example')
+    const res = await agent.get(`/api/clubs/${club.club.id}/squads`)
+    expect(res.status).toBe(403)
+    expect(res.body.error.code).toBe('access_window_closed')
+    expect(res.body.error.message).toContain(`from ${addDays(2)} to ${addDays(4)}`)
+  })
+
+  it('answers 403 for a squad the visit does not cover and lists only the covered ones', async () => {
+    const club = await clubWithPeople(database.db, 'covered')
+    // Squad B is created after the clinician's visit (which covered every squad then).
+    const other = await createSquad(database.db, club.club.id, {
+      name: 'Squad B',
+      level: 'junior',
+      discipline: 'artistic-women',
+    })
+    const agent = await signedIn(t, club.people.clinician.email)
+    const base = `/api/clubs/${club.club.id}`
+    const squads = await agent.get(`${base}/squads`).expect(200)
+    expect(squads.body.map((s: { name: string }) => s.name)).toEqual(['Squad A'])
+    await agent.get(`${base}/squads/${other.id}`).expect(403)
+    await agent.get(`${base}/squads/${other.id}/grid`).expect(403)
+    const rec = await agent
+      .post(`${base}/recommendations`)
+      .send({ squadId: other.id, text: 'More handstands.', dueOn: addDays(5) })
+    expect(rec.status).toBe(403)
+  })
+
+  it('ends access when the director cancels the visit', async () => {
+    const club = await clubWithPeople(database.db, 'cancelled')
+    const director = {
+      clubId: club.club.id,
+      userId: club.people.director.id,
+      role: 'director' as const,
+    }
+    const agent = await signedIn(t, club.people.clinician.email)
+    await agent.get(`/api/clubs/${club.club.id}/squads`).expect(200)
+    const [visit] = await listVisits(database.db, director)
+    await cancelVisit(database.db, director, visit!.id)
+    const res = await agent.get(`/api/clubs/${club.club.id}/squads`)
+    expect(res.status).toBe(403)
+    expect(res.body.error.code).toBe('access_window_closed')
   })
 })

@@ -51,6 +51,10 @@ const archivedIn: Record<string, string> = {
   requirement_profiles: 'requirement-profiles.json',
   age_thresholds: 'age-thresholds.csv',
   audits: 'audits.csv',
+  visits: 'visits.csv',
+  visit_squads: 'visit-squads.csv',
+  recommendations: 'recommendations.csv',
+  recommendation_events: 'recommendation-history.csv',
 }
 /** Tables with club_id whose rows the archive leaves out, with the reason. */
 const leftOut: Record<string, string> = {

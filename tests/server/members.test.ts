@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { hashToken } from '../../server/auth/tokens.ts'
 import { invitations, invitationTokens, memberships } from '../../server/db/schema.ts'
+import { visits } from '../../server/db/schema-visits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { addDays, clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
@@ -235,20 +236,21 @@ describe('members', () => {
 })
 
 describe('clinician windows', () => {
+  // Access derives from the clinician's visits (the membership's dates became one).
   it.each([
-    ['not yet open', 1, 5],
-    ['already closed', -5, -1],
-  ])('refuses a clinician whose window is %s, saying why', async (_label, from, to) => {
+    ['not yet open', 1, 5, `Your next visit runs from ${addDays(1)} to ${addDays(5)}`],
+    ['already closed', -5, -1, 'You have no visit scheduled'],
+  ])('refuses a clinician whose window is %s, saying why', async (_label, from, to, said) => {
     const other = await clubWithPeople(database.db, `win${from}`)
     await database.db
-      .update(memberships)
-      .set({ accessStartsOn: addDays(from), accessEndsOn: addDays(to) })
-      .where(eq(memberships.userId, other.people.clinician.id))
+      .update(visits)
+      .set({ firstDay: addDays(from), lastDay: addDays(to) })
+      .where(eq(visits.clinicianId, other.people.clinician.id))
     const agent = await signedIn(t, other.people.clinician.email)
     const res = await agent.get(`/api/clubs/${other.club.id}/`)
     expect(res.status).toBe(403)
     expect(res.body.error.code).toBe('access_window_closed')
-    expect(res.body.error.message).toContain(addDays(from))
+    expect(res.body.error.message).toContain(said)
     const me = await agent.get('/api/auth/me').expect(200)
     expect(me.body.memberships[0].accessOpen).toBe(false)
   })
