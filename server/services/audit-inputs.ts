@@ -4,7 +4,11 @@
 
 import { and, asc, eq, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
-import type { AuditInputs, AuditRecord, RequirementProfile } from '../../shared/domain/audit.ts'
+import type {
+  AuditInputs,
+  AuditRecord,
+  RequirementProfile,
+} from '../../shared/domain/audit/types.ts'
 import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {

@@ -1,17 +1,15 @@
 import { and, asc, desc, eq, getTableColumns, inArray, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds } from '../../shared/domain/age-categories.ts'
 import { todayIso } from '../../shared/domain/access.ts'
+import { compareAudits } from '../../shared/domain/audit/comparison.ts'
+import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
+import { defaultRequirementProfiles } from '../../shared/domain/audit/readiness.ts'
+import { runAudit } from '../../shared/domain/audit/run.ts'
 import {
   auditFigures,
-  auditInputHash,
-  compareAudits,
-  defaultRequirementProfiles,
-  packAuditResult,
-  runAudit,
-  unpackAuditResult,
   type AuditProgress,
   type AuditResult,
-} from '../../shared/domain/audit.ts'
+} from '../../shared/domain/audit/types.ts'
 import type { Discipline } from '../../shared/domain/club.ts'
 import { athleteFullName, erasedAthleteLabel } from '../../shared/domain/erasure.ts'
 import { quarterEnd } from '../../shared/domain/quarters.ts'
@@ -23,6 +21,7 @@ import type {
   RequirementProfileInput,
 } from '../../shared/schemas/audits.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
+import { packAuditResult, unpackAuditResult } from './audit-storage.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
   ageThresholds,

@@ -1,6 +1,6 @@
 import PDFDocument from 'pdfkit'
 import { createRequire } from 'node:module'
-import type { CoverageCell } from '../../shared/domain/audit.ts'
+import type { CoverageCell } from '../../shared/domain/audit/types.ts'
 import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 

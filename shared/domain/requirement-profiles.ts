@@ -1,5 +1,5 @@
 import type { AgeCategory } from './age-categories.ts'
-import type { RequirementProfile } from './audit.ts'
+import type { RequirementProfile } from './audit/types.ts'
 import type { Discipline } from './club.ts'
 import { slugify as slug } from './slug.ts'
 

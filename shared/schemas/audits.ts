@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { ageCategories } from '../domain/age-categories.ts'
-import type { AuditComparison, AuditResult } from '../domain/audit.ts'
+import type { AuditComparison } from '../domain/audit/comparison.ts'
+import type { AuditResult } from '../domain/audit/types.ts'
 import { disciplines } from '../domain/club.ts'
 import { directions, rotationClasses, twistBands } from '../domain/element.ts'
 import { isoDateSchema } from './auth.ts'

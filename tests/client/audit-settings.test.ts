@@ -1,7 +1,7 @@
 import { flushPromises } from '@vue/test-utils'
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defaultAgeThresholds } from '@shared/domain/age-categories'
-import { womensArtisticFloorProfile } from '@shared/domain/audit'
+import { womensArtisticFloorProfile } from '@shared/domain/audit/readiness'
 import * as api from '@/api/audits'
 import { ApiError } from '@/api/http'
 import AuditsView from '@/views/AuditsView.vue'

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
-import { womensArtisticFloorProfile } from '../../shared/domain/audit.ts'
+import { womensArtisticFloorProfile } from '../../shared/domain/audit/readiness.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 import type { Database } from '../../server/db/client.ts'
 import { createAthlete } from '../../server/services/athletes.ts'

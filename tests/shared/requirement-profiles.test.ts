@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { womensArtisticFloorProfile, type RequirementProfile } from '../../shared/domain/audit.ts'
+import { womensArtisticFloorProfile } from '../../shared/domain/audit/readiness.ts'
+import type { RequirementProfile } from '../../shared/domain/audit/types.ts'
 import {
   overlappingProfiles,
   profileIdFromLabel,

@@ -1,5 +1,5 @@
 import type { AgeCategory } from '@shared/domain/age-categories'
-import type { AuditComparison, FigureChange } from '@shared/domain/audit'
+import type { AuditComparison, FigureChange } from '@shared/domain/audit/comparison'
 import { quarterEnd, quarterOf } from '@shared/domain/quarters'
 
 // How the audit's figures are put on screen. Lags are stored as fractions and shown as

@@ -1,5 +1,5 @@
 import type { DataTableColumns } from 'naive-ui'
-import type { SquadBreakdown } from '@shared/domain/audit'
+import type { SquadBreakdown } from '@shared/domain/audit/types'
 import { formatPercent, formatRatio } from './auditFormat'
 
 export interface AuditSquadColumnContext {

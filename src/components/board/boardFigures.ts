@@ -1,4 +1,4 @@
-import type { FigureChange } from '@shared/domain/audit'
+import type { FigureChange } from '@shared/domain/audit/comparison'
 import type { BoardSummary } from '@shared/schemas/audits'
 import { reportFigures, type HeadlineFigure } from '@/components/audit/auditFormat'
 
