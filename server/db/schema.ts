@@ -522,6 +522,8 @@ export const requirementProfiles = pgTable(
     id: text().notNull(),
     label: text().notNull(),
     discipline: disciplineEnum().notNull(),
+    /** Only elements of this apparatus can meet the requirements (floor, tumbling, …). */
+    apparatus: text().notNull(),
     categories: text().array().notNull(),
     source: text().notNull(),
     requirements: jsonb().notNull(),

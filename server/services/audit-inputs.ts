@@ -31,6 +31,7 @@ export async function clubProfiles(db: DbOrTx, clubId: string): Promise<Requirem
     id: r.id,
     label: r.label,
     discipline: r.discipline,
+    apparatus: r.apparatus,
     categories: r.categories as RequirementProfile['categories'],
     source: r.source,
     requirements: r.requirements as RequirementProfile['requirements'],
@@ -126,6 +127,7 @@ export async function gatherInputs(
     elements: catalogue.map((e) => ({
       id: e.id,
       name: e.name,
+      apparatus: e.apparatus,
       direction: e.direction,
       rotationClass: e.rotationClass,
       twistBand: e.twistBand,

@@ -43,6 +43,7 @@ export async function installAuditDefaults(db: DbOrTx, clubId: string) {
       id: p.id,
       label: p.label,
       discipline: p.discipline,
+      apparatus: p.apparatus,
       categories: [...p.categories],
       source: p.source,
       requirements: p.requirements,
@@ -62,6 +63,7 @@ export async function installAuditDefaults(db: DbOrTx, clubId: string) {
 const profileValues = (input: RequirementProfileInput) => ({
   label: input.label,
   discipline: input.discipline,
+  apparatus: input.apparatus,
   categories: input.categories,
   source: input.source,
   requirements: input.requirements,

@@ -5,6 +5,7 @@ import type { AuditResult } from '../domain/audit/types.ts'
 import { disciplines } from '../domain/club.ts'
 import { directions, rotationClasses, twistBands } from '../domain/element.ts'
 import { isoDateSchema } from './auth.ts'
+import { apparatusSchema } from './elements.ts'
 import { text } from './text.ts'
 
 /** POST /audits: a scope (the club, or one squad) and an as-of date or the end of a quarter. */
@@ -82,6 +83,8 @@ export const requirementProfileSchema = z.object({
   id: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Use lower-case letters, digits and dashes.'),
   label: text().min(1, 'Name the profile.').max(200),
   discipline: z.enum(disciplines, 'Choose a discipline.'),
+  /** Only elements of this apparatus meet the profile's requirements. */
+  apparatus: apparatusSchema,
   categories: z.array(z.enum(ageCategories)).min(1, 'Choose at least one category.'),
   source: text().min(1, 'Name the source, or write "from memory".').max(300),
   requirements: z

@@ -140,6 +140,7 @@ describe('the stored form of a result', () => {
       catalogue.push({
         id: backward,
         name: name('backward'),
+        apparatus: 'floor',
         direction: 'backward',
         rotationClass,
         twistBand,
@@ -150,6 +151,7 @@ describe('the stored form of a result', () => {
         catalogue.push({
           id: forward,
           name: name('forward'),
+          apparatus: 'floor',
           direction: 'forward',
           rotationClass,
           twistBand,
@@ -161,6 +163,7 @@ describe('the stored form of a result', () => {
         catalogue.push({
           id: uuid(),
           name: `Salto sideward ${i}`,
+          apparatus: 'floor',
           direction: 'sideward',
           rotationClass,
           twistBand,

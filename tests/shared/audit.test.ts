@@ -307,8 +307,9 @@ describe('runAudit', () => {
         ['salto-full-twist', 'ff', 4, '2025-12-04', true],
         // only bdt (8 steps) is a double: 8 / 1.5 × 30 = 160 days → 22 February, after 1 January
         ['double-salto', 'bdt', 8, '2026-02-22', false],
-        // ff, fp and ss all need 4: the lowest id, ff, is shown; 80 days
-        ['salto-forward-sideward', 'ff', 4, '2025-12-04', true],
+        // the untwisted singles come first: fp and ss (4 steps) need 4, ft (5 steps) 5; of the
+        // two nearest the lowest id, fp, is shown (ff, a full twist, is further); 80 days
+        ['salto-forward-sideward', 'fp', 4, '2025-12-04', true],
         // bt at step index 3 of 5 needs 1 more; 1 / 1.5 × 30 = 20 days
         ['salto-backward', 'bt', 1, '2025-10-05', true],
       ])

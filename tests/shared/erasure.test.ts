@@ -35,6 +35,7 @@ const element = (
 ): AuditElement => ({
   id,
   name: id.toUpperCase(),
+  apparatus: 'floor',
   direction,
   rotationClass: 'single',
   twistBand: 'none',

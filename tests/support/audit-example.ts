@@ -18,6 +18,7 @@ export const el = (
 ): AuditElement => ({
   id,
   name: id.toUpperCase(),
+  apparatus: 'floor',
   direction,
   rotationClass,
   twistBand,

@@ -27,6 +27,7 @@ export const womensArtisticFloorProfile: RequirementProfile = {
   id: 'fig-wag-floor-2022',
   label: "Women's artistic floor: acrobatic composition requirements",
   discipline: 'artistic-women',
+  apparatus: 'floor',
   categories: ['junior', 'senior'],
   source: wagFloorSource,
   requirements: [
@@ -87,6 +88,37 @@ export function elementMatches(element: AuditElement, match: RequirementMatch): 
   return true
 }
 
+/** Rotation class, then twist band: how far an element is from the simplest salto. */
+const levelOf = (element: AuditElement) =>
+  rotationClasses.indexOf(element.rotationClass) * twistBands.length +
+  twistBands.indexOf(element.twistBand)
+
+/**
+ * The positions in `elements` of those that can meet a requirement of `profile`: of the profile's
+ * apparatus (a trampoline salto never meets a floor requirement) and matching the requirement,
+ * simplest first (lowest rotation class, then lowest twist band), then by position.
+ */
+export function requirementCandidates(
+  profile: Pick<RequirementProfile, 'apparatus'>,
+  requirement: Pick<Requirement, 'matches'>,
+  elements: readonly AuditElement[],
+): number[] {
+  const matching: number[] = []
+  elements.forEach((e, i) => {
+    if (e.apparatus === profile.apparatus && elementMatches(e, requirement.matches))
+      matching.push(i)
+  })
+  return matching.sort((x, y) => levelOf(elements[x]!) - levelOf(elements[y]!) || x - y)
+}
+
+/**
+ * Each athlete whose age category changes within the horizon, checked against the profile of
+ * the next category. A requirement is met when any candidate element has reached its target
+ * step. Otherwise the element suggested is the one nearest to what the athlete can build on:
+ * the lowest rotation class and twist band that meets the requirement, then the fewest steps
+ * still to climb, then the lowest id. (Counting steps alone would send a beginner to a double
+ * salto whose progression happens to be short.)
+ */
 export function readinessRows(
   athletes: readonly AuditAthlete[],
   steps: readonly Map<number, number>[],
@@ -102,11 +134,7 @@ export function readinessRows(
   const candidates = new Map<Requirement, number[]>()
   for (const profile of profiles) {
     for (const requirement of profile.requirements) {
-      const matching: number[] = []
-      elements.forEach((e, i) => {
-        if (elementMatches(e, requirement.matches)) matching.push(i)
-      })
-      candidates.set(requirement, matching)
+      candidates.set(requirement, requirementCandidates(profile, requirement, elements))
     }
   }
 
@@ -126,8 +154,13 @@ export function readinessRows(
     const athletePace = paces[athlete.id] ?? 0
     const byElement = steps[a]!
     const requirements = (profile?.requirements ?? []).map((requirement): RequirementStatus => {
-      let nearest: { e: number; stepIndex: number | null; target: number; needed: number } | null =
-        null
+      let nearest: {
+        e: number
+        level: number
+        stepIndex: number | null
+        target: number
+        needed: number
+      } | null = null
       for (const e of candidates.get(requirement) ?? []) {
         const element = elements[e]!
         const last = element.stepCount - 1
@@ -138,8 +171,16 @@ export function readinessRows(
         if (target < 0) continue
         const stepIndex = byElement.get(e) ?? null
         const needed = Math.max(0, target - (stepIndex ?? -1))
-        // Candidates come in id order, so a tie goes to the lowest id.
-        if (nearest === null || needed < nearest.needed) nearest = { e, stepIndex, target, needed }
+        const level = levelOf(element)
+        // Candidates come simplest first, then in id order: the first met one is taken; until
+        // one is met, the simplest level stays and, on it, the fewest steps win.
+        if (
+          nearest === null ||
+          (needed === 0 && nearest.needed > 0) ||
+          (level === nearest.level && needed < nearest.needed)
+        ) {
+          nearest = { e, level, stepIndex, target, needed }
+        }
         if (needed === 0) break
       }
       const met = nearest !== null && nearest.needed === 0

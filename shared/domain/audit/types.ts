@@ -7,6 +7,8 @@ import type { AgeCategory, AgeThresholdTable } from '../age-categories.ts'
 export interface AuditElement {
   id: string
   name: string
+  /** Floor, tumbling, trampoline or a club's own: a requirement is met on its own apparatus. */
+  apparatus: string
   direction: Direction
   rotationClass: RotationClass
   twistBand: TwistBand
@@ -50,6 +52,8 @@ export interface RequirementProfile {
   id: string
   label: string
   discipline: Discipline
+  /** Only elements of this apparatus can meet the requirements: a floor profile is met on floor. */
+  apparatus: string
   /** The categories the profile applies to, i.e. for athletes about to enter one of them. */
   categories: readonly AgeCategory[]
   source: string
