@@ -467,7 +467,12 @@ describe('compareAudits', () => {
     // squad B front-lag: 1 → 1 − 0.8 / (103/60) = 1 − 48/103 = 55/103
     expect(change.squadFrontLags['squad-b']?.current).toBeCloseTo(55 / 103, 12)
     expect(change.squadFrontLags['squad-b']?.change).toBeCloseTo(55 / 103 - 1, 12)
-    expect(change.squadFrontLags['squad-c']).toEqual({ previous: null, current: 0, change: null })
+    // squad C's only athlete has no record yet: no data, not a front-lag of 0
+    expect(change.squadFrontLags['squad-c']).toEqual({
+      previous: null,
+      current: null,
+      change: null,
+    })
   })
 
   it('has no previous figures for a first audit', () => {

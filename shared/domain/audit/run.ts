@@ -203,8 +203,8 @@ export function runAudit(
     athleteRows.push({
       athleteId: athlete.id,
       squadId: athlete.squadId,
-      frontLag: lagFrom(sums.backwardMirrored, sums.backward),
-      backLag: lagFrom(sums.forwardMirrored, sums.forward),
+      frontLag: byElement.size === 0 ? null : lagFrom(sums.backwardMirrored, sums.backward),
+      backLag: byElement.size === 0 ? null : lagFrom(sums.forwardMirrored, sums.forward),
       forwardProficiency: sums.forward,
       backwardProficiency: sums.backward,
     })
@@ -273,18 +273,23 @@ export function runAudit(
   })
   const squads: SquadBreakdown[] = [...squadIndex.entries()]
     .sort(([x], [y]) => compareText(x, y))
-    .map(([squadId, { sums, athletes: members }]) => ({
-      squadId,
-      athleteCount: members.length,
-      frontLag: lagFrom(sums.backwardMirrored, sums.backward),
-      backLag: lagFrom(sums.forwardMirrored, sums.forward),
-      forwardProficiency: sums.forward,
-      backwardProficiency: sums.backward,
-      balanceRatio: balanceRatio(sums.forward, sums.backward),
-      gapCount: members.reduce((n, a) => n + gapsByAthlete[a]!, 0),
-      athletesWithGaps: members.filter((a) => gapsByAthlete[a]! > 0).length,
-      readinessAlerts: members.filter((a) => alertAthletes.has(athletes[a]!.id)).length,
-    }))
+    .map(([squadId, { sums, athletes: members }]) => {
+      const withRecords = members.filter((a) => steps[a]!.size > 0).length
+      return {
+        squadId,
+        athleteCount: members.length,
+        athletesWithRecords: withRecords,
+        frontLag: withRecords === 0 ? null : lagFrom(sums.backwardMirrored, sums.backward),
+        backLag: withRecords === 0 ? null : lagFrom(sums.forwardMirrored, sums.forward),
+        forwardProficiency: sums.forward,
+        backwardProficiency: sums.backward,
+        balanceRatio: balanceRatio(sums.forward, sums.backward),
+        gapCount: members.reduce((n, a) => n + gapsByAthlete[a]!, 0),
+        athletesWithGaps: members.filter((a) => gapsByAthlete[a]! > 0).length,
+        readinessAlerts: members.filter((a) => alertAthletes.has(athletes[a]!.id)).length,
+      }
+    })
+  const anyRecords = steps.some((byElement) => byElement.size > 0)
 
   const total = emptySums()
   for (const sums of athleteSums) addSums(total, sums)
@@ -295,10 +300,11 @@ export function runAudit(
     options: resolved,
     headline: {
       athleteCount: athletes.length,
-      clubFrontLag: lagFrom(total.backwardMirrored, total.backward),
-      clubBackLag: lagFrom(total.forwardMirrored, total.forward),
+      clubFrontLag: anyRecords ? lagFrom(total.backwardMirrored, total.backward) : null,
+      clubBackLag: anyRecords ? lagFrom(total.forwardMirrored, total.forward) : null,
       balanceRatio: balanceRatio(total.forward, total.backward),
       squadFrontLags: Object.fromEntries(squads.map((s) => [s.squadId, s.frontLag])),
+      squadsWithoutRecords: squads.filter((s) => s.athletesWithRecords === 0).length,
       catalogueGaps: catalogueGaps.length,
       gapCount: gaps.length,
       athletesWithGaps: gapsByAthlete.filter((n) => n > 0).length,

@@ -95,8 +95,9 @@ export interface AuditProgress {
 export interface AthleteBalance {
   athleteId: string
   squadId: string
-  frontLag: number
-  backLag: number
+  /** Null when the athlete has no record with a step: no data, not a lag of 0. */
+  frontLag: number | null
+  backLag: number | null
   forwardProficiency: number
   backwardProficiency: number
 }
@@ -104,8 +105,11 @@ export interface AthleteBalance {
 export interface SquadBreakdown {
   squadId: string
   athleteCount: number
-  frontLag: number
-  backLag: number
+  /** Athletes of the squad with at least one record with a step. */
+  athletesWithRecords: number
+  /** Null when no athlete of the squad has a record: no data, not a lag of 0. */
+  frontLag: number | null
+  backLag: number | null
   forwardProficiency: number
   backwardProficiency: number
   balanceRatio: number | null
@@ -189,11 +193,20 @@ export interface ReadinessRow {
 
 export interface AuditHeadline {
   athleteCount: number
-  /** Front-lag over every athlete in scope (the club, or the squad for a squad audit). */
-  clubFrontLag: number
-  clubBackLag: number
+  /**
+   * Front-lag over every athlete in scope (the club, or the squad for a squad audit); null when
+   * no athlete in scope has a record (no data).
+   */
+  clubFrontLag: number | null
+  clubBackLag: number | null
   balanceRatio: number | null
-  squadFrontLags: Record<string, number>
+  /** By squad; null for a squad without records. */
+  squadFrontLags: Record<string, number | null>
+  /**
+   * Squads in scope none of whose athletes has a record: left out of rankings and counted apart.
+   * Absent from audits stored before it existed.
+   */
+  squadsWithoutRecords?: number
   catalogueGaps: number
   gapCount: number
   athletesWithGaps: number
