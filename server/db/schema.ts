@@ -18,8 +18,9 @@ import {
   uuid,
   varchar,
 } from 'drizzle-orm/pg-core'
-import type { AuditFigures, AuditResult, StoredAuditResult } from '../../shared/domain/audit.ts'
+import type { AuditFigures, AuditResult } from '../../shared/domain/audit/types.ts'
 import type { AuditRun } from '../../shared/schemas/audits.ts'
+import type { StoredAuditResult } from '../services/audit-storage.ts'
 import { disciplines, roles, squadLevels } from '../../shared/domain/club.ts'
 import {
   directions,
@@ -474,7 +475,7 @@ export const progressRecords = pgTable(
 )
 
 /**
- * A stored audit: the result of shared/domain/audit.ts over the club's data as of a date,
+ * A stored audit: the result of shared/domain/audit/run.ts over the club's data as of a date,
  * never changed after it is written (publishing only stamps it, and erasing an athlete for good
  * replaces their id in it), with the hash of its inputs.
  */
@@ -521,6 +522,8 @@ export const requirementProfiles = pgTable(
     id: text().notNull(),
     label: text().notNull(),
     discipline: disciplineEnum().notNull(),
+    /** Only elements of this apparatus can meet the requirements (floor, tumbling, …). */
+    apparatus: text().notNull(),
     categories: text().array().notNull(),
     source: text().notNull(),
     requirements: jsonb().notNull(),

@@ -1,8 +1,8 @@
 import { and, asc, eq, gt, sql, type SQL } from 'drizzle-orm'
 import type { PgColumn } from 'drizzle-orm/pg-core'
-import { unpackAuditResult } from '../../shared/domain/audit.ts'
 import { deriveElement, type DifficultyLetter } from '../../shared/domain/catalogue.ts'
 import type { DbOrTx } from '../db/client.ts'
+import { unpackAuditResult } from './audit-storage.ts'
 import {
   ageThresholds,
   athletes,

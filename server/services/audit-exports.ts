@@ -42,6 +42,7 @@ export function headlineCsv(report: AuditReport) {
     ['gaps', h.gapCount, c.gapCount.change],
     ['athletes with gaps', h.athletesWithGaps, c.athletesWithGaps.change],
     ['readiness alerts', h.readinessAlerts, c.readinessAlerts.change],
+    ['squads without records', h.squadsWithoutRecords ?? null, null],
     ...Object.entries(h.squadFrontLags).map(([id, v]) => [
       `front-lag ${report.squadNames[id] ?? id}`,
       v,

@@ -4,7 +4,11 @@
 
 import { and, asc, eq, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
-import type { AuditInputs, AuditRecord, RequirementProfile } from '../../shared/domain/audit.ts'
+import type {
+  AuditInputs,
+  AuditRecord,
+  RequirementProfile,
+} from '../../shared/domain/audit/types.ts'
 import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
@@ -27,6 +31,7 @@ export async function clubProfiles(db: DbOrTx, clubId: string): Promise<Requirem
     id: r.id,
     label: r.label,
     discipline: r.discipline,
+    apparatus: r.apparatus,
     categories: r.categories as RequirementProfile['categories'],
     source: r.source,
     requirements: r.requirements as RequirementProfile['requirements'],
@@ -122,6 +127,7 @@ export async function gatherInputs(
     elements: catalogue.map((e) => ({
       id: e.id,
       name: e.name,
+      apparatus: e.apparatus,
       direction: e.direction,
       rotationClass: e.rotationClass,
       twistBand: e.twistBand,

@@ -2,16 +2,20 @@ import { and, asc, desc, eq, getTableColumns, inArray, isNull } from 'drizzle-or
 import { defaultAgeThresholds } from '../../shared/domain/age-categories.ts'
 import { todayIso } from '../../shared/domain/access.ts'
 import {
-  auditFigures,
-  auditInputHash,
+  baselineAudit,
   compareAudits,
-  defaultRequirementProfiles,
-  packAuditResult,
-  runAudit,
-  unpackAuditResult,
+  type AuditComparison,
+  isRerun,
+  onePerDate,
+} from '../../shared/domain/audit/comparison.ts'
+import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
+import { defaultRequirementProfiles } from '../../shared/domain/audit/readiness.ts'
+import { runAudit } from '../../shared/domain/audit/run.ts'
+import {
+  auditFigures,
   type AuditProgress,
   type AuditResult,
-} from '../../shared/domain/audit.ts'
+} from '../../shared/domain/audit/types.ts'
 import type { Discipline } from '../../shared/domain/club.ts'
 import { athleteFullName, erasedAthleteLabel } from '../../shared/domain/erasure.ts'
 import { quarterEnd } from '../../shared/domain/quarters.ts'
@@ -23,6 +27,7 @@ import type {
   RequirementProfileInput,
 } from '../../shared/schemas/audits.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
+import { packAuditResult, unpackAuditResult } from './audit-storage.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
   ageThresholds,
@@ -44,6 +49,7 @@ export async function installAuditDefaults(db: DbOrTx, clubId: string) {
       id: p.id,
       label: p.label,
       discipline: p.discipline,
+      apparatus: p.apparatus,
       categories: [...p.categories],
       source: p.source,
       requirements: p.requirements,
@@ -63,6 +69,7 @@ export async function installAuditDefaults(db: DbOrTx, clubId: string) {
 const profileValues = (input: RequirementProfileInput) => ({
   label: input.label,
   discipline: input.discipline,
+  apparatus: input.apparatus,
   categories: input.categories,
   source: input.source,
   requirements: input.requirements,
@@ -209,7 +216,19 @@ async function squadNames(db: DbOrTx, clubId: string) {
 const { result: _result, ...summaryColumns } = getTableColumns(audits)
 type SummaryRow = Omit<typeof audits.$inferSelect, 'result'>
 
-function summary(row: SummaryRow, names: Record<string, string>): AuditSummary {
+/** A stored audit as the choice of a baseline and the re-run label see it. */
+const listing = (row: SummaryRow) => ({
+  row,
+  asOf: row.asOf,
+  createdAt: row.createdAt.getTime(),
+  published: row.publishedAt !== null,
+})
+
+function summary(
+  row: SummaryRow,
+  names: Record<string, string>,
+  scope: readonly SummaryRow[],
+): AuditSummary {
   const { headline } = row.figures
   return {
     id: row.id,
@@ -219,6 +238,7 @@ function summary(row: SummaryRow, names: Record<string, string>): AuditSummary {
     inputHash: row.inputHash,
     createdAt: row.createdAt.toISOString(),
     publishedAt: row.publishedAt?.toISOString() ?? null,
+    rerun: isRerun(scope.filter(sameScope(row)).map(listing), listing(row)),
     clubFrontLag: headline.clubFrontLag,
     balanceRatio: headline.balanceRatio,
     athleteCount: headline.athleteCount,
@@ -232,7 +252,21 @@ export async function listAudits(db: DbOrTx, clubId: string): Promise<AuditSumma
     .from(audits)
     .where(eq(audits.clubId, clubId))
     .orderBy(desc(audits.asOf), desc(audits.createdAt))
-  return rows.map((r) => summary(r, names))
+  return rows.map((r) => summary(r, names, rows))
+}
+
+const withoutSquads = ({ squadFrontLags: _bySquad, ...rest }: AuditComparison) => rest
+
+const sameScope = (row: SummaryRow) => (other: SummaryRow) => other.squadId === row.squadId
+
+/**
+ * The audit a stored one's changes are measured from, with the changes: the same function for
+ * the director's report and the board (see {@link baselineAudit}).
+ */
+function changesOf(scope: readonly SummaryRow[], row: SummaryRow) {
+  const listed = scope.filter(sameScope(row)).map(listing)
+  const previous = baselineAudit(listed, listing(row))?.row ?? null
+  return { previous, comparison: compareAudits(previous?.figures ?? null, row.figures) }
 }
 
 async function auditSummaryRow(db: DbOrTx, clubId: string, id: string): Promise<SummaryRow> {
@@ -253,19 +287,6 @@ async function auditRow(db: DbOrTx, clubId: string, id: string) {
   return row
 }
 
-/** The previous audit of the same scope: the latest one with an earlier as-of date (or created before on the same date). */
-function previousOf(rows: SummaryRow[], row: SummaryRow) {
-  return rows
-    .filter(
-      (r) =>
-        r.id !== row.id &&
-        (r.asOf < row.asOf || (r.asOf === row.asOf && r.createdAt < row.createdAt)),
-    )
-    .sort(
-      (a, b) => b.asOf.localeCompare(a.asOf) || b.createdAt.getTime() - a.createdAt.getTime(),
-    )[0]
-}
-
 /** A report; for a coach the athlete rows are limited to their squads. */
 export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Promise<AuditReport> {
   const row = await auditRow(db, access.clubId, id)
@@ -279,7 +300,8 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
         row.squadId ? eq(audits.squadId, row.squadId) : isNull(audits.squadId),
       ),
     )
-  const previous = previousOf(scope, row)
+  const self = scope.find((r) => r.id === row.id)!
+  const { previous, comparison } = changesOf(scope, self)
   const full = unpackAuditResult(row.result)
   const readable = await readableSquadIds(db, access)
   const keep = (squadId: string) => readable === 'all' || readable.includes(squadId)
@@ -307,18 +329,16 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
           .from(athletes)
           .where(and(eq(athletes.clubId, access.clubId), inArray(athletes.id, ids)))
   return {
-    audit: summary(row, names),
+    audit: summary(self, names, scope),
     result,
-    comparison: compareAudits(previous?.figures ?? null, full),
-    previous: previous ? summary(previous, names) : null,
-    trend: scope
-      .sort((a, b) => a.asOf.localeCompare(b.asOf) || a.createdAt.getTime() - b.createdAt.getTime())
-      .map((r) => ({
-        id: r.id,
-        asOf: r.asOf,
-        clubFrontLag: r.figures.headline.clubFrontLag,
-        balanceRatio: r.figures.headline.balanceRatio,
-      })),
+    comparison,
+    previous: previous ? summary(previous, names, scope) : null,
+    trend: onePerDate(scope.map(listing)).map(({ row: r }) => ({
+      id: r.id,
+      asOf: r.asOf,
+      clubFrontLag: r.figures.headline.clubFrontLag,
+      balanceRatio: r.figures.headline.balanceRatio,
+    })),
     athleteNames: namesOrErased(ids, people),
     squadNames: names,
     limitedToSquads: readable !== 'all',
@@ -370,9 +390,10 @@ export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSum
       .orderBy(asc(audits.asOf), asc(audits.createdAt))
   ).filter((r) => r.publishedAt !== null)
   // One point per date: an audit published again for the same day replaces the earlier one.
-  const rows = published.filter((r, i) => published[i + 1]?.asOf !== r.asOf)
+  const rows = onePerDate(published.map(listing)).map((l) => l.row)
   const last = rows.at(-1)
   const latest = last?.figures ?? null
+  const changes = last ? changesOf(published, last).comparison : null
   return {
     clubName: club!.name,
     trend: rows.map((r) => {
@@ -385,23 +406,33 @@ export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSum
       }
     }),
     latest:
-      last && latest
+      last && latest && changes
         ? {
             asOf: last.asOf,
             publishedAt: last.publishedAt!.toISOString(),
             athleteCount: latest.headline.athleteCount,
             clubFrontLag: latest.headline.clubFrontLag,
+            clubBackLag: latest.headline.clubBackLag,
             balanceRatio: latest.headline.balanceRatio,
             catalogueGaps: latest.headline.catalogueGaps,
             athletesWithGaps: latest.headline.athletesWithGaps,
             readinessAlerts: latest.headline.readinessAlerts,
+            // The board reads no squad ids: its squads are named in `squads`.
+            comparison: withoutSquads(changes),
             squads: latest.squads
-              .map((s) => ({
-                name: names[s.squadId] ?? 'Squad',
-                frontLag: s.frontLag,
-                athleteCount: s.athleteCount,
-              }))
+              .flatMap((s) =>
+                s.frontLag === null
+                  ? []
+                  : [
+                      {
+                        name: names[s.squadId] ?? 'Squad',
+                        frontLag: s.frontLag,
+                        athleteCount: s.athleteCount,
+                      },
+                    ],
+              )
               .sort((a, b) => a.name.localeCompare(b.name)),
+            squadsWithoutRecords: latest.squads.filter((s) => s.frontLag === null).length,
           }
         : null,
   }

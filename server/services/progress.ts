@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm'
-import { gapDeficit } from '../../shared/domain/audit.ts'
+import { gapDeficit } from '../../shared/domain/audit/formulas.ts'
 import {
   checkEvent,
   replayRecord,

@@ -1,10 +1,10 @@
 import PDFDocument from 'pdfkit'
 import { createRequire } from 'node:module'
-import type { CoverageCell } from '../../shared/domain/audit.ts'
+import type { CoverageCell } from '../../shared/domain/audit/types.ts'
 import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 
-const pct = (n: number | null) => (n === null ? '—' : `${(n * 100).toFixed(1)} %`)
+const pct = (n: number | null) => (n === null ? 'no data' : `${(n * 100).toFixed(1)} %`)
 const ratio = (n: number | null) => (n === null ? '—' : n.toFixed(2))
 
 /** How many gap and readiness rows the PDF lists; the CSV export has them all. */
@@ -155,7 +155,10 @@ function trendChart(doc: PDFKit.PDFDocument, trend: AuditReport['trend']) {
       doc.circle(point[0], point[1], 1.8).fill(dash ? forwardColour : '#1d4e5f')
   }
   line(
-    trend.map((p, i) => [x(i), yLag(p.clubFrontLag)]),
+    trend.flatMap((p, i) => (p.clubFrontLag === null ? [] : [[x(i), yLag(p.clubFrontLag)]])) as [
+      number,
+      number,
+    ][],
     false,
   )
   line(

@@ -61,14 +61,18 @@ export function totalHalfTwists(twists: readonly number[]): number {
 }
 
 /**
- * Rotation class for the coverage grid, by the salto count rounded up: 0 quarter rotations is
- * none, 1–4 single, 5–8 double, 9 and more triple. Quadruple saltos (13–16) are rare enough to
- * share the triple class, so the grid keeps four columns.
+ * Rotation class for the coverage grid and the requirements, by the saltos completed: a double
+ * salto is two full rotations (8 quarters), so a 1¼ salto (5 quarters) or a 1¾ (7) is still of
+ * the single class, as the FIG trampoline difficulty counts a salto only once it is completed
+ * (see {@link trampolineDifficulty}). 0 quarter rotations is none; a salto short of a full
+ * rotation (1–3 quarters) is single, the only salto class below a double; 8–11 double; 12 and
+ * more triple. Quadruple saltos (16) are rare enough to share the triple class, so the grid
+ * keeps four columns. (The twist entries still follow {@link saltoCount}, rounded up.)
  */
 export function rotationClass(quarterRotations: number): RotationClass {
   if (quarterRotations <= 0) return 'none'
-  if (quarterRotations <= 4) return 'single'
-  if (quarterRotations <= 8) return 'double'
+  if (quarterRotations < 8) return 'single'
+  if (quarterRotations < 12) return 'double'
   return 'triple'
 }
 

@@ -1,6 +1,6 @@
 // Erasing for good: an athlete (a minor, mostly) or a whole club, after the name is typed.
 
-import type { AuditResult, StoredAuditResult } from './audit.ts'
+import type { AuditResult } from './audit/types.ts'
 
 /** What reports and exports show where the name of an athlete erased for good was. */
 export const erasedAthleteLabel = 'Erased athlete'
@@ -18,6 +18,9 @@ export function confirmationMatches(typed: string, name: string): boolean {
   return typed.trim() !== '' && typed.trim() === name.trim()
 }
 
+/** What every form of a stored audit result has: its athletes, readiness rows and gaps. */
+type AuditRows = Pick<AuditResult, 'athletes' | 'readiness'> & { gaps: readonly unknown[] }
+
 /**
  * A stored audit result with one athlete's id replaced, or null when the athlete is not in it.
  * Every figure, row and rank stays as it was; only the id changes, to one that nothing else
@@ -25,7 +28,7 @@ export function confirmationMatches(typed: string, name: string): boolean {
  * (a link, a log line, an export taken earlier). Reads both the stored form, whose gaps point at
  * the athletes by position, and the full form written before it, whose gaps carry the id.
  */
-export function replaceAthleteId<T extends StoredAuditResult | AuditResult>(
+export function replaceAthleteId<T extends AuditRows>(
   result: T,
   athleteId: string,
   replacement: string,
@@ -38,6 +41,6 @@ export function replaceAthleteId<T extends StoredAuditResult | AuditResult>(
     ...result,
     athletes: result.athletes.map(swap),
     readiness: result.readiness.map(swap),
-    ...('format' in result ? {} : { gaps: (result as AuditResult).gaps.map(swap) }),
+    ...('format' in result ? {} : { gaps: (result as unknown as AuditResult).gaps.map(swap) }),
   }
 }

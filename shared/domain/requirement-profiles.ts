@@ -1,7 +1,16 @@
 import type { AgeCategory } from './age-categories.ts'
-import type { RequirementProfile } from './audit.ts'
+import type { RequirementProfile } from './audit/types.ts'
 import type { Discipline } from './club.ts'
 import { slugify as slug } from './slug.ts'
+
+/**
+ * The apparatus a new profile of a discipline starts on: the artistic disciplines' acrobatic
+ * requirements are floor ones; tumbling and trampoline have an apparatus of their own name.
+ * Migration 0013 gave profiles written before the field existed the same.
+ */
+export function defaultApparatus(discipline: Discipline): string {
+  return discipline === 'tumbling' || discipline === 'trampoline' ? discipline : 'floor'
+}
 
 /** The longest id the API accepts for a requirement profile. */
 export const profileIdMaxLength = 60

@@ -1,9 +1,11 @@
 import { z } from 'zod'
 import { ageCategories } from '../domain/age-categories.ts'
-import type { AuditComparison, AuditResult } from '../domain/audit.ts'
+import type { AuditComparison } from '../domain/audit/comparison.ts'
+import type { AuditResult } from '../domain/audit/types.ts'
 import { disciplines } from '../domain/club.ts'
 import { directions, rotationClasses, twistBands } from '../domain/element.ts'
 import { isoDateSchema } from './auth.ts'
+import { apparatusSchema } from './elements.ts'
 import { text } from './text.ts'
 
 /** POST /audits: a scope (the club, or one squad) and an as-of date or the end of a quarter. */
@@ -30,7 +32,10 @@ export const auditSummarySchema = z.object({
   inputHash: z.string(),
   createdAt: z.string(),
   publishedAt: z.string().nullable(),
-  clubFrontLag: z.number(),
+  /** Another audit of the same scope and date was run before this one. */
+  rerun: z.boolean(),
+  /** Null when no athlete in scope has a record: no data. */
+  clubFrontLag: z.number().nullable(),
   balanceRatio: z.number().nullable(),
   athleteCount: z.number(),
 })
@@ -53,8 +58,8 @@ export interface AuditReport {
   result: AuditResult
   comparison: AuditComparison
   previous: AuditSummary | null
-  /** The same scope's audits, oldest first, for the trend chart. */
-  trend: { id: string; asOf: string; clubFrontLag: number; balanceRatio: number | null }[]
+  /** The same scope's audits, one per date (the last run for it), oldest first. */
+  trend: { id: string; asOf: string; clubFrontLag: number | null; balanceRatio: number | null }[]
   athleteNames: Record<string, string>
   squadNames: Record<string, string>
   /** True when the rows were limited to the coach's squads. */
@@ -81,6 +86,8 @@ export const requirementProfileSchema = z.object({
   id: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Use lower-case letters, digits and dashes.'),
   label: text().min(1, 'Name the profile.').max(200),
   discipline: z.enum(disciplines, 'Choose a discipline.'),
+  /** Only elements of this apparatus meet the profile's requirements. */
+  apparatus: apparatusSchema,
   categories: z.array(z.enum(ageCategories)).min(1, 'Choose at least one category.'),
   source: text().min(1, 'Name the source, or write "from memory".').max(300),
   requirements: z
@@ -105,16 +112,27 @@ export const ageThresholdInputSchema = z
 /** GET /board-summary: aggregates only, never an athlete. */
 export interface BoardSummary {
   clubName: string
-  trend: { asOf: string; clubFrontLag: number; clubBackLag: number; balanceRatio: number | null }[]
+  /** One point per date, the last audit published for it; null lags are no data. */
+  trend: {
+    asOf: string
+    clubFrontLag: number | null
+    clubBackLag: number | null
+    balanceRatio: number | null
+  }[]
   latest: {
     asOf: string
     publishedAt: string
     athleteCount: number
-    clubFrontLag: number
+    clubFrontLag: number | null
+    clubBackLag: number | null
     balanceRatio: number | null
     catalogueGaps: number
     athletesWithGaps: number
     readinessAlerts: number
+    /** The same changes as the director's report shows for this audit (`compareAudits`). */
+    comparison: Omit<AuditComparison, 'squadFrontLags'>
+    /** Squads with records, by name; those without are only counted. */
     squads: { name: string; frontLag: number; athleteCount: number }[]
+    squadsWithoutRecords: number
   } | null
 }

@@ -16,19 +16,22 @@ function saltoPhrase(count: number): string {
   return word === undefined ? `${count}-salto` : `${word} salto`
 }
 
+/** An apparatus name, as elements and requirement profiles give it. */
+export const apparatusSchema = z
+  .string({ error: 'Choose the apparatus.' })
+  .trim()
+  .min(1, { error: 'Choose the apparatus.', abort: true })
+  .max(40, 'Keep the apparatus name to 40 characters or fewer.')
+  .regex(
+    /^[a-z0-9]+(-[a-z0-9]+)*$/,
+    'Write the apparatus in lower-case letters, digits and dashes, e.g. floor or double-mini.',
+  )
+
 const elementFields = {
   name: text({ error: 'Enter the element name.' })
     .min(1, 'Enter the element name.')
     .max(80, 'Keep the element name to 80 characters or fewer.'),
-  apparatus: z
-    .string({ error: 'Choose the apparatus.' })
-    .trim()
-    .min(1, { error: 'Choose the apparatus.', abort: true })
-    .max(40, 'Keep the apparatus name to 40 characters or fewer.')
-    .regex(
-      /^[a-z0-9]+(-[a-z0-9]+)*$/,
-      'Write the apparatus in lower-case letters, digits and dashes, e.g. floor or double-mini.',
-    ),
+  apparatus: apparatusSchema,
   direction: z.enum(directions, {
     error: 'Choose the direction of the salto: forward, backward or sideward.',
   }),

@@ -1,5 +1,5 @@
 import type { AgeThresholds, AgeThresholdTable } from '@shared/domain/age-categories'
-import type { RequirementProfile } from '@shared/domain/audit'
+import type { RequirementProfile } from '@shared/domain/audit/types'
 import type { Discipline } from '@shared/domain/club'
 import type {
   AuditJob,

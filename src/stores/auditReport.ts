@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import type { GapEntry } from '@shared/domain/audit'
+import type { GapEntry } from '@shared/domain/audit/types'
 import { erasedAthleteLabel } from '@shared/domain/erasure'
 import type { AuditReport } from '@shared/schemas/audits'
 import * as api from '@/api/audits'

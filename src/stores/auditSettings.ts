@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import type { AgeThresholds, AgeThresholdTable } from '@shared/domain/age-categories'
-import type { RequirementProfile } from '@shared/domain/audit'
+import type { RequirementProfile } from '@shared/domain/audit/types'
 import type { Discipline } from '@shared/domain/club'
 import type { RequirementProfileInput } from '@shared/schemas/audits'
 import * as api from '@/api/audits'

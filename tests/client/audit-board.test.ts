@@ -76,4 +76,27 @@ describe('BoardSummaryView', () => {
     expect(clicked[0]!.href).toContain('data:image/png')
     expect(clicked[0]!.download).toBe('Demo-club-balance-2025-06-30.png')
   })
+
+  it('shows the change the server computed, and counts squads without records apart', async () => {
+    const summary = boardSummary()
+    vi.mocked(api.getBoardSummary).mockResolvedValue({
+      ...summary,
+      latest: {
+        ...summary.latest!,
+        // the server measures from the last published audit of an earlier date, which need
+        // not be the trend's previous point as the client would have guessed (0.30 → 0.25)
+        comparison: {
+          ...summary.latest!.comparison,
+          clubFrontLag: { previous: 0.2, current: 0.25, change: 0.05 },
+        },
+        squadsWithoutRecords: 2,
+      },
+    })
+    mountInProviders(BoardSummaryView, {}, { role: 'board' })
+    await settle()
+    expect(byTest('figure-front-lag')!.textContent).toContain('▲ +5.0 pts')
+    expect(byTest('squads-without-records')!.textContent).toContain('2 squads without records')
+    // two bars, for the squads with records
+    expect(document.body.textContent).toContain('Development | Juniors A')
+  })
 })

@@ -3,7 +3,9 @@ import { type Component } from 'vue'
 import { mountWithProviders } from './mount'
 import { createMemoryHistory, createRouter, type Router } from 'vue-router'
 import type { Role } from '@shared/domain/club'
-import { resolveAuditOptions, type AuditResult, type FigureChange } from '@shared/domain/audit'
+import type { FigureChange } from '@shared/domain/audit/comparison'
+import { resolveAuditOptions } from '@shared/domain/audit/run'
+import type { AuditResult } from '@shared/domain/audit/types'
 import type { AuditReport, AuditSummary, BoardSummary } from '@shared/schemas/audits'
 import { useSessionStore } from '@/stores/session'
 
@@ -85,6 +87,7 @@ export function auditSummary(partial: Partial<AuditSummary> = {}): AuditSummary 
     inputHash: 'a3f1c09e77b2d4e5f60718293a4b5c6d7e8f90112233445566778899aabbccdd',
     createdAt: '2025-07-01T09:30:00.000Z',
     publishedAt: null,
+    rerun: false,
     clubFrontLag: 0.325,
     balanceRatio: 0.85,
     athleteCount: 2,
@@ -113,6 +116,7 @@ export function auditReport(partial: Partial<AuditReport> = {}): AuditReport {
       {
         squadId: squadIds[0]!,
         athleteCount: 1,
+        athletesWithRecords: 1,
         frontLag: 0.4,
         backLag: 0.05,
         forwardProficiency: 1.2,
@@ -125,6 +129,7 @@ export function auditReport(partial: Partial<AuditReport> = {}): AuditReport {
       {
         squadId: squadIds[1]!,
         athleteCount: 1,
+        athletesWithRecords: 1,
         frontLag: 0.2,
         backLag: 0.05,
         forwardProficiency: 1.6,
@@ -253,14 +258,27 @@ export function boardSummary(partial: Partial<BoardSummary> = {}): BoardSummary 
       publishedAt: '2025-07-02T10:00:00.000Z',
       athleteCount: 24,
       clubFrontLag: 0.25,
+      clubBackLag: 0.04,
       balanceRatio: 0.9,
       catalogueGaps: 3,
       athletesWithGaps: 7,
       readinessAlerts: 2,
+      // what the server computes against the audit as of 2025-03-31
+      comparison: {
+        athleteCount: fc(22, 24),
+        clubFrontLag: fc(0.3, 0.25),
+        clubBackLag: fc(0.05, 0.04),
+        balanceRatio: fc(0.8, 0.9),
+        catalogueGaps: fc(3, 3),
+        gapCount: fc(9, 8),
+        athletesWithGaps: fc(8, 7),
+        readinessAlerts: fc(2, 2),
+      },
       squads: [
         { name: 'Development', frontLag: 0.2, athleteCount: 14 },
         { name: 'Juniors A', frontLag: 0.31, athleteCount: 10 },
       ],
+      squadsWithoutRecords: 0,
     },
     ...partial,
   }

@@ -2,7 +2,7 @@ import { flushPromises } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defaultAgeThresholds } from '@shared/domain/age-categories'
-import { womensArtisticFloorProfile } from '@shared/domain/audit'
+import { womensArtisticFloorProfile } from '@shared/domain/audit/readiness'
 import type { RequirementProfileInput } from '@shared/schemas/audits'
 import * as api from '@/api/audits'
 import { ApiError } from '@/api/http'
@@ -33,6 +33,7 @@ const tumblingJunior: RequirementProfileInput = {
   id: 'tumbling-junior-passes',
   label: 'Tumbling junior passes',
   discipline: 'tumbling',
+  apparatus: 'tumbling',
   categories: ['junior'],
   source: 'from memory',
   requirements: [
@@ -182,6 +183,7 @@ describe('RequirementProfilesView: a new profile', slow, () => {
     const form = byTest('new-profile-form')!.textContent!
     expect(form).toContain('Name the profile.')
     expect(form).toContain('Choose a discipline.')
+    expect(form).toContain('Choose the apparatus.')
     expect(form).toContain('Choose at least one category.')
     expect(form).toContain('Name the source, or write "from memory".')
     expect(byTest('profile-draft')).toBeNull()
@@ -225,6 +227,8 @@ describe('RequirementProfilesView: a new profile', slow, () => {
       id: 'tumbling-junior-passes',
       label: 'Tumbling: junior passes',
       discipline: 'tumbling',
+      // the discipline's own apparatus, suggested when the discipline was chosen
+      apparatus: 'tumbling',
       categories: ['junior'],
       source: 'from memory',
       requirements: [

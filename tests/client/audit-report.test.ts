@@ -115,4 +115,34 @@ describe('AuditReportView', () => {
     expect(result).toContain('The history has changed since')
     expect(result).toContain('Run a new audit')
   })
+
+  it('shows a scope without records as no data, squads without records apart, and a re-run', async () => {
+    const base = auditReport()
+    const [first, second] = base.result.squads
+    vi.mocked(api.getAuditReport).mockResolvedValue({
+      ...base,
+      audit: { ...base.audit, rerun: true, clubFrontLag: null },
+      result: {
+        ...base.result,
+        headline: { ...base.result.headline, clubFrontLag: null, squadsWithoutRecords: 1 },
+        squads: [
+          first!,
+          { ...second!, athletesWithRecords: 0, frontLag: null, backLag: null, balanceRatio: null },
+        ],
+      },
+    })
+    mountInProviders(AuditReportView, { id: auditId })
+    await settle()
+    // no data, never 0.0%
+    expect(byTest('figure-front-lag')!.textContent).toContain('no data')
+    expect(byTest('figure-front-lag')!.textContent).not.toContain('0.0%')
+    expect(byTest('rerun')!.textContent).toContain('re-run of 2025-06-30')
+    // the squad table ranks the squad with records only; the other is counted apart
+    const squadTable = document.querySelector('.n-data-table')!.textContent!
+    expect(squadTable).toContain('Juniors A')
+    expect(squadTable).not.toContain('Development')
+    expect(byTest('squads-without-records')!.textContent).toContain(
+      '1 squad without records (no data, not ranked): Development.',
+    )
+  })
 })

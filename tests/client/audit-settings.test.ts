@@ -1,7 +1,7 @@
 import { flushPromises } from '@vue/test-utils'
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defaultAgeThresholds } from '@shared/domain/age-categories'
-import { womensArtisticFloorProfile } from '@shared/domain/audit'
+import { womensArtisticFloorProfile } from '@shared/domain/audit/readiness'
 import * as api from '@/api/audits'
 import { ApiError } from '@/api/http'
 import AuditsView from '@/views/AuditsView.vue'
@@ -67,6 +67,8 @@ describe('RequirementProfilesView', () => {
     const text = document.body.textContent!
     expect(text).toContain('A salto forward or sideward')
     expect(text).toContain(womensArtisticFloorProfile.source)
+    // the apparatus the requirements are met on
+    expect(text).toContain('met by floor elements')
     expect(text).toContain('should be checked against the current FIG rules')
     expect(byTest('thresholds-tumbling')!.textContent).toContain('from memory')
     expect(document.querySelector('input')).toBeNull()
@@ -90,6 +92,7 @@ describe('RequirementProfilesView', () => {
     expect(api.saveRequirementProfile).toHaveBeenCalledTimes(1)
     const input = vi.mocked(api.saveRequirementProfile).mock.calls[0]![1]
     expect(input.id).toBe(womensArtisticFloorProfile.id)
+    expect(input.apparatus).toBe('floor')
     expect(input.requirements[0]).toMatchObject({
       label: 'A salto with a full twist or more',
       minStepIndex: 3,

@@ -33,6 +33,8 @@ test('a director creates a requirement profile for tumbling juniors, then delete
   const created = page.locator('[data-test="profile-tumbling-junior-passes"]')
   await expect(created).toBeVisible()
   await expect(created.getByText('Tumbling', { exact: true })).toBeVisible()
+  // the discipline suggested its own apparatus: the requirements are met on tumbling
+  await expect(created.locator('[data-test="profile-apparatus"]')).toHaveText('On tumbling')
   await expect(draft).toHaveCount(0)
   await screenshot(page, 'requirement-profile-created')
 

@@ -120,6 +120,7 @@ const newAudit = (f: Fixture) => runAndStore(f.db.db, directorAccess(f), { squad
 const profile = {
   label: 'Test profile',
   discipline: 'tumbling',
+  apparatus: 'tumbling',
   categories: ['senior'],
   source: 'from memory',
   requirements: [

@@ -7,7 +7,8 @@ import { audits } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { appendHistory } from '../../server/services/progress.ts'
 import { createSquad } from '../../server/services/squads.ts'
-import { auditFigures, type StoredAuditResult } from '../../shared/domain/audit.ts'
+import type { StoredAuditResult } from '../../server/services/audit-storage.ts'
+import { auditFigures } from '../../shared/domain/audit/types.ts'
 import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -181,7 +182,8 @@ describe('running an audit', () => {
     expect(today.audit.inputHash).not.toBe(q2.audit.inputHash)
     expect(today.previous?.asOf).toBe('2026-06-30')
     expect(today.comparison.clubFrontLag.change).toBeCloseTo(-2 / 3, 10)
-    expect(today.trend.map((p) => p.asOf)).toEqual(['2026-06-30', '2026-06-30', today.audit.asOf])
+    // one point per date: the second run as of 2026-06-30 replaces the first
+    expect(today.trend.map((p) => p.asOf)).toEqual(['2026-06-30', today.audit.asOf])
   })
 
   it('tells when the inputs changed after the audit (a back-dated correction)', async () => {
@@ -316,5 +318,49 @@ describe('publishing and the board', () => {
     expect(asCoach.result.gaps.some((g) => g.athleteId === other)).toBe(false)
     expect(Object.keys(asCoach.athleteNames)).not.toContain(other)
     expect(report.result.gaps.some((g) => g.athleteId === other)).toBe(true)
+  })
+})
+
+describe('one change figure for the director and the board', () => {
+  it('measures a published audit from the last published one of an earlier date, for both', async () => {
+    // A squad whose one athlete has no record: no data, left out of the board's bars.
+    const quiet = await createSquad(database.db, fx.club.id, {
+      name: 'Quiet squad',
+      level: 'junior',
+      discipline: 'artistic-women',
+    })
+    await createAthlete(database.db, fx.club.id, {
+      givenName: 'Nell',
+      familyName: 'Ashcombe',
+      birthYear: 2015,
+      squadId: quiet.id,
+      discipline: 'artistic-women',
+    })
+    const latest = await runAudit({ squadId: null })
+    await director.post(`${base}/audits/${latest.audit.id}/publish`).expect(200)
+    // the same date run again: a re-run, compared with the earlier date, not with itself
+    const rerun = await runAudit({ squadId: null, asOf: latest.audit.asOf })
+    expect(rerun.audit.rerun).toBe(true)
+    expect(rerun.previous!.asOf < rerun.audit.asOf).toBe(true)
+    expect(rerun.trend.filter((p) => p.asOf === rerun.audit.asOf)).toHaveLength(1)
+    expect(new Set(rerun.trend.map((p) => p.asOf)).size).toBe(rerun.trend.length)
+
+    const report = (await director.get(`${base}/audits/${latest.audit.id}`).expect(200))
+      .body as AuditReport
+    // the last audit published before: the board's 2026-06-30 one
+    expect(report.previous?.asOf).toBe('2026-06-30')
+    expect(report.previous?.publishedAt).not.toBeNull()
+    const summary = (await board.get(`${base}/board-summary`).expect(200)).body as BoardSummary
+    expect(summary.latest?.asOf).toBe(latest.audit.asOf)
+    const { squadFrontLags: _bySquad, ...directorChanges } = report.comparison
+    expect(summary.latest?.comparison).toEqual(directorChanges)
+    expect(summary.latest?.clubBackLag).toBe(report.result.headline.clubBackLag)
+
+    // the quiet squad: no data in the report, not a bar on the board, counted apart
+    const quietRow = report.result.squads.find((s) => s.squadId === quiet.id)!
+    expect(quietRow).toMatchObject({ athleteCount: 1, athletesWithRecords: 0, frontLag: null })
+    expect(summary.latest?.squads.map((s) => s.name)).not.toContain('Quiet squad')
+    expect(summary.latest?.squadsWithoutRecords).toBe(1)
+    expect(report.result.headline.squadsWithoutRecords).toBe(1)
   })
 })

@@ -10,9 +10,12 @@ import {
   progressEvents,
   progressRecords,
   squads,
+  users,
 } from '../../server/db/schema.ts'
 import { prepareDatabase } from '../../server/cli/bootstrap.ts'
-import { boardSummary } from '../../server/services/audits.ts'
+import { boardSummary, getReport, runAndStore } from '../../server/services/audits.ts'
+import { listElements } from '../../server/services/catalogue.ts'
+import { womensArtisticFloorProfile } from '../../shared/domain/audit/readiness.ts'
 import { freshDatabase } from '../support/database.ts'
 
 // The demo's made-up history must show what the product is for: one squad whose forward program
@@ -117,5 +120,42 @@ describe('the demo club’s history', () => {
     const falcons = board.latest!.squads.find((s) => s.name === 'Falcons')!
     const kites = board.latest!.squads.find((s) => s.name === 'Kites')!
     expect(falcons.frontLag).toBeGreaterThan(kites.frontLag)
+  })
+
+  it('checks its floor gymnasts’ readiness on floor elements only', async () => {
+    // The demo's artistic squads also train on the trampoline. The women's floor profile (FIG WAG
+    // Code of Points 2022–2024, floor composition requirements, from memory) is met on floor
+    // alone, so a trampoline double or twist never makes a gymnast ready for floor.
+    const [club] = await database.db.select().from(clubs)
+    const [director] = await database.db
+      .select()
+      .from(users)
+      .where(eq(users.email, 'director@demo.example'))
+    const access = { clubId: club!.id, userId: director!.id, role: 'director' as const }
+    const id = await runAndStore(database.db, access, { squadId: null, asOf: '2026-12-01' })
+    const { result } = await getReport(database.db, access, id)
+    const catalogue = new Map((await listElements(database.db, club!.id)).map((e) => [e.id, e]))
+    const floorRows = result.readiness.filter((r) => r.profileId === womensArtisticFloorProfile.id)
+    expect(floorRows.length).toBeGreaterThan(0)
+    const suggested = floorRows.flatMap((r) => r.requirements.map((s) => s.elementId))
+    expect(new Set(suggested.map((e) => catalogue.get(e!)!.apparatus))).toEqual(new Set(['floor']))
+    // Someone on the trampoline as far as a double or a full twist is still missing those on floor.
+    const records = await database.db.select().from(progressRecords)
+    const trampolineReady = floorRows.filter((row) =>
+      records.some((r) => {
+        const e = catalogue.get(r.elementId)!
+        return (
+          r.athleteId === row.athleteId &&
+          e.apparatus === 'trampoline' &&
+          (e.rotationClass === 'double' || e.twistBand === 'full') &&
+          r.stepIndex !== null &&
+          r.stepIndex >= 2
+        )
+      }),
+    )
+    expect(trampolineReady.length).toBeGreaterThan(0)
+    // One of them has met nothing on floor yet: all four requirements are missing (her
+    // trampoline double back with a full twist made three of them read as met before).
+    expect(trampolineReady.some((row) => row.missingCount === 4)).toBe(true)
   })
 })

@@ -233,7 +233,7 @@ describe('npm start builds the client only when needed', () => {
       'vite.config.ts',
       'package-lock.json',
       'src/views/HomeView.vue',
-      'shared/domain/audit.ts',
+      'shared/domain/audit/run.ts',
       'public/favicon.svg',
     ])
       touch(project, path, before)
@@ -261,7 +261,7 @@ describe('npm start builds the client only when needed', () => {
   it.each([
     'src/views/HomeView.vue',
     'src/components/audit/AuditNew.vue',
-    'shared/domain/audit.ts',
+    'shared/domain/audit/run.ts',
     'public/favicon.svg',
     'index.html',
     'vite.config.ts',

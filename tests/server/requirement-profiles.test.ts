@@ -1,10 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
-import { womensArtisticFloorProfile } from '../../shared/domain/audit.ts'
+import { womensArtisticFloorProfile } from '../../shared/domain/audit/readiness.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 import type { Database } from '../../server/db/client.ts'
+import { elementSteps } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
+import { listElements } from '../../server/services/catalogue.ts'
+import { appendHistory } from '../../server/services/progress.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -25,6 +28,7 @@ const tumblingSenior = {
   id: 'tumbling-senior-passes',
   label: 'Tumbling: senior passes',
   discipline: 'tumbling',
+  apparatus: 'tumbling',
   categories: ['senior'],
   source: 'from memory',
   requirements: [
@@ -99,6 +103,8 @@ describe('POST /api/clubs/:clubId/requirement-profiles', () => {
     ['no discipline', { id: 'no-discipline', discipline: undefined }, 'discipline'],
     ['an unknown discipline', { id: 'rings', discipline: 'rings' }, 'discipline'],
     ['no category', { id: 'no-category', categories: [] }, 'categories'],
+    ['no apparatus', { id: 'no-apparatus', apparatus: undefined }, 'apparatus'],
+    ['an apparatus with spaces', { id: 'spaced', apparatus: 'Double mini' }, 'apparatus'],
     ['a blank name', { id: 'blank-name', label: '   ' }, 'label'],
     ['no requirement', { id: 'empty', requirements: [] }, 'requirements'],
     [
@@ -218,5 +224,74 @@ describe('DELETE /api/clubs/:clubId/requirement-profiles/:id', () => {
 
     const after = (await director.get(`${base}/audits/${auditId}`).expect(200)).body as AuditReport
     expect(after.result).toEqual(before.result)
+  })
+})
+
+describe('a requirement is met on its profile’s apparatus', () => {
+  it('never counts a trampoline element towards the women’s floor profile', async () => {
+    // The seeded profile is the women's floor composition requirements (FIG WAG Code of Points
+    // 2022–2024, floor exercise, from memory): a salto with a full twist, a double salto, a
+    // salto forward or sideward, a salto backward. An athlete competition-ready on trampoline
+    // saltos that would match all four on geometry alone has met none of them on floor.
+    const club = await clubWithPeople(database.db, 'profiles-apparatus')
+    const access = {
+      clubId: club.club.id,
+      userId: club.people.director.id,
+      role: 'director' as const,
+    }
+    const athlete = await createAthlete(database.db, club.club.id, {
+      givenName: 'Tova',
+      familyName: 'Brackley',
+      birthYear: 2013, // a junior from 1 January 2027 (FIG WAG juniors 14–15, from memory)
+      squadId: club.squad.id,
+      discipline: 'artistic-women',
+    })
+    const catalogue = await listElements(database.db, club.club.id)
+    const trampoline = (direction: string, quarters: number, twists: number[]) =>
+      catalogue.find(
+        (e) =>
+          e.apparatus === 'trampoline' &&
+          e.direction === direction &&
+          e.quarterRotations === quarters &&
+          JSON.stringify(e.twists) === JSON.stringify(twists),
+      )!
+    const ready = [
+      trampoline('backward', 8, [2, 0]), // full-in double back: double, full twist, backward
+      trampoline('forward', 4, [0]), // front salto
+    ]
+    const steps = await database.db.select().from(elementSteps)
+    const last = (id: string) =>
+      Math.max(...steps.filter((s) => s.elementId === id).map((s) => s.position))
+    await appendHistory(
+      database.db,
+      club.club.id,
+      ready.map((e) => ({
+        athleteId: athlete.id,
+        elementId: e.id,
+        coachId: club.people.coach.id,
+        change: {
+          kind: 'step' as const,
+          stepIndex: last(e.id),
+          occurredOn: '2026-05-10',
+          skipReason: 'Assessed',
+        },
+      })),
+    )
+    const auditId = await runAndStore(database.db, access, { squadId: null, asOf: '2026-06-30' })
+    const director = await signedIn(t, club.people.director.email)
+    const report = (await director.get(`/api/clubs/${club.club.id}/audits/${auditId}`).expect(200))
+      .body as AuditReport
+    const [row] = report.result.readiness
+    expect(row!.profileId).toBe(womensArtisticFloorProfile.id)
+    expect(row!.requirements.map((r) => [r.requirementId, r.met])).toEqual([
+      ['salto-full-twist', false],
+      ['double-salto', false],
+      ['salto-forward-sideward', false],
+      ['salto-backward', false],
+    ])
+    expect(row!.missingCount).toBe(4)
+    // every suggestion is a floor element, never the trampoline ones she already does
+    const apparatusOf = new Map(catalogue.map((e) => [e.id, e.apparatus]))
+    for (const r of row!.requirements) expect(apparatusOf.get(r.elementId!)).toBe('floor')
   })
 })

@@ -31,17 +31,22 @@ function element(
 
 describe('saltoCount, rotationClass and twistBand', () => {
   it.each([
-    // Twofold's rule (product brief): a partial salto counts as the salto being worked on
+    // Salto count (twist entries), Twofold's rule (product brief): a partial salto counts as the
+    // salto being worked on. Rotation class, by saltos completed: in the FIG numeric notation the
+    // first figure counts quarter saltos and a double salto is 8 (820o, the full-in double back,
+    // FIG Trampoline Code of Points 2005, appendix A), and the same code's difficulty adds 0.1
+    // only per completed salto; so a 1¼ salto (5 quarters) is of the single class, not a double.
     [0, 0, 'none'],
     [1, 1, 'single'],
-    [3, 1, 'single'],
+    [3, 1, 'single'], // ¾ salto: short of a full rotation, still a salto
     [4, 1, 'single'],
-    [5, 2, 'double'],
-    [7, 2, 'double'],
-    [8, 2, 'double'],
-    [9, 3, 'triple'],
-    [12, 3, 'triple'],
-    [16, 4, 'triple'],
+    [5, 2, 'single'], // 1¼ salto: one salto completed
+    [7, 2, 'single'], // 1¾ salto
+    [8, 2, 'double'], // the first double: 8 quarters
+    [9, 3, 'double'], // 2¼
+    [11, 3, 'double'], // 2¾
+    [12, 3, 'triple'], // the first triple: 12 quarters
+    [16, 4, 'triple'], // quadruple, sharing the triple class
   ] as const)(
     'counts %i quarter rotations as %i saltos, class %s',
     (quarters, saltos, rotation) => {

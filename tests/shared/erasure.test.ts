@@ -1,11 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import {
-  packAuditResult,
-  runAudit,
-  unpackAuditResult,
-  type AuditElement,
-  type AuditInputs,
-} from '../../shared/domain/audit.ts'
+import { packAuditResult, unpackAuditResult } from '../../server/services/audit-storage.ts'
+import { runAudit } from '../../shared/domain/audit/run.ts'
+import type { AuditElement, AuditInputs } from '../../shared/domain/audit/types.ts'
 import {
   athleteFullName,
   confirmationMatches,
@@ -39,6 +35,7 @@ const element = (
 ): AuditElement => ({
   id,
   name: id.toUpperCase(),
+  apparatus: 'floor',
   direction,
   rotationClass: 'single',
   twistBand: 'none',

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { womensArtisticFloorProfile, type RequirementProfile } from '../../shared/domain/audit.ts'
+import { womensArtisticFloorProfile } from '../../shared/domain/audit/readiness.ts'
+import type { RequirementProfile } from '../../shared/domain/audit/types.ts'
 import {
+  defaultApparatus,
   overlappingProfiles,
   profileIdFromLabel,
 } from '../../shared/domain/requirement-profiles.ts'
@@ -32,6 +34,20 @@ describe('profileIdFromLabel', () => {
       const id = profileIdFromLabel(label, [])
       expect(requirementProfileSchema.shape.id.safeParse(id).success, id).toBe(true)
     }
+  })
+})
+
+describe('defaultApparatus', () => {
+  it.each([
+    // The acrobatic composition requirements of the artistic disciplines are floor ones (FIG WAG
+    // and MAG Codes of Points, floor exercise, from memory); tumbling and trampoline are each
+    // their own apparatus (FIG Trampoline Code of Points, from memory).
+    ['artistic-women', 'floor'],
+    ['artistic-men', 'floor'],
+    ['tumbling', 'tumbling'],
+    ['trampoline', 'trampoline'],
+  ] as const)('starts a %s profile on %s', (discipline, apparatus) => {
+    expect(defaultApparatus(discipline)).toBe(apparatus)
   })
 })
 

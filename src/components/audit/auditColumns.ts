@@ -2,7 +2,7 @@ import { NTag, type DataTableColumns } from 'naive-ui'
 import { h } from 'vue'
 import { RouterLink } from 'vue-router'
 import type { AuditSummary } from '@shared/schemas/audits'
-import { formatPercent, formatRatio, formatTimestamp, hashPrefix } from './auditFormat'
+import { compareLags, formatPercent, formatRatio, formatTimestamp, hashPrefix } from './auditFormat'
 
 // Table cells are rendered outside any scoped style, hence inline.
 const muted = 'color: var(--tf-muted)'
@@ -25,7 +25,18 @@ export function auditColumns(): DataTableColumns<AuditSummary> {
       title: 'Created',
       key: 'createdAt',
       width: 150,
-      render: (a) => formatTimestamp(a.createdAt),
+      render: (a) =>
+        a.rerun
+          ? h('span', [
+              formatTimestamp(a.createdAt),
+              ' ',
+              h(
+                NTag,
+                { size: 'small', title: 'Another audit of this scope and date was run before' },
+                () => 'Re-run',
+              ),
+            ])
+          : formatTimestamp(a.createdAt),
     },
     {
       title: 'Published',
@@ -47,7 +58,7 @@ export function auditColumns(): DataTableColumns<AuditSummary> {
       key: 'clubFrontLag',
       width: 100,
       align: 'right',
-      sorter: (a, b) => a.clubFrontLag - b.clubFrontLag,
+      sorter: (a, b) => compareLags(a.clubFrontLag, b.clubFrontLag),
       render: (a) => formatPercent(a.clubFrontLag),
     },
     {

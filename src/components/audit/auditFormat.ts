@@ -1,14 +1,33 @@
 import type { AgeCategory } from '@shared/domain/age-categories'
-import type { AuditComparison, FigureChange } from '@shared/domain/audit'
+import type { AuditComparison, FigureChange } from '@shared/domain/audit/comparison'
 import { quarterEnd, quarterOf } from '@shared/domain/quarters'
 
 // How the audit's figures are put on screen. Lags are stored as fractions and shown as
 // percentages; their changes are in percentage points, so that "+2.0 pts" is never read as a
 // relative change of 2 %.
 
-/** A fraction 0..1 as a percentage with one decimal: 0.123 → "12.3%". */
+/**
+ * A fraction 0..1 as a percentage with one decimal: 0.123 → "12.3%". A missing one is no data
+ * (a scope without records), never shown as 0.
+ */
 export const formatPercent = (fraction: number | null | undefined) =>
-  fraction === null || fraction === undefined ? '—' : `${(fraction * 100).toFixed(1)}%`
+  fraction === null || fraction === undefined ? 'no data' : `${(fraction * 100).toFixed(1)}%`
+
+/**
+ * Squads without records, counted apart from the ones ranked: "2 squads without records" (no
+ * data, left out of the rankings); empty when there are none.
+ */
+export function withoutRecordsText(squads: number | undefined): string {
+  if (!squads) return ''
+  return `${squads} ${squads === 1 ? 'squad' : 'squads'} without records (no data, not ranked)`
+}
+
+/**
+ * Orders lags for a ranking, those without data last whatever the direction asked: a table
+ * sorter given `order` ('ascend' or 'descend').
+ */
+export const compareLags = (a: number | null, b: number | null) =>
+  a === null || b === null ? (a === null ? 1 : 0) - (b === null ? 1 : 0) : a - b
 
 /** The balance ratio with two decimals; without backward progress it has no value. */
 export const formatRatio = (ratio: number | null | undefined) =>
@@ -145,7 +164,7 @@ export function formatTimestamp(iso: string): string {
 /** One audit on a trend chart. */
 export interface TrendPoint {
   asOf: string
-  clubFrontLag: number
+  clubFrontLag: number | null
   balanceRatio: number | null
 }
 
@@ -165,8 +184,8 @@ export interface HeadlineFigure {
 /** The report's headline figures with their change since the previous audit of the scope. */
 export function reportFigures(
   headline: {
-    clubFrontLag: number
-    clubBackLag: number
+    clubFrontLag: number | null
+    clubBackLag: number | null
     balanceRatio: number | null
     catalogueGaps: number
     athletesWithGaps: number

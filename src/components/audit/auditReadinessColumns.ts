@@ -1,6 +1,6 @@
 import { NTag, type DataTableColumns } from 'naive-ui'
 import { h } from 'vue'
-import type { ReadinessRow, RequirementStatus } from '@shared/domain/audit'
+import type { ReadinessRow, RequirementStatus } from '@shared/domain/audit/types'
 import { categoryLabels } from './auditFormat'
 
 export interface AuditReadinessColumnContext {

@@ -1,6 +1,6 @@
 import type { DataTableColumns } from 'naive-ui'
-import type { SquadBreakdown } from '@shared/domain/audit'
-import { formatPercent, formatRatio } from './auditFormat'
+import type { SquadBreakdown } from '@shared/domain/audit/types'
+import { compareLags, formatPercent, formatRatio } from './auditFormat'
 
 export interface AuditSquadColumnContext {
   squadName: (squadId: string) => string
@@ -24,7 +24,7 @@ export function auditSquadColumns(
       key: 'frontLag',
       width: 100,
       align: 'right',
-      sorter: (a, b) => a.frontLag - b.frontLag,
+      sorter: (a, b) => compareLags(a.frontLag, b.frontLag),
       render: (s) => formatPercent(s.frontLag),
     },
     {

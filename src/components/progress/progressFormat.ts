@@ -1,4 +1,4 @@
-import { gapDeficit } from '@shared/domain/audit'
+import { gapDeficit } from '@shared/domain/audit/formulas'
 import type { SquadLevel } from '@shared/domain/club'
 import type { Direction, RotationClass } from '@shared/domain/element'
 import { rotationClasses } from '@shared/domain/element'

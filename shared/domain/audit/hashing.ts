@@ -1,0 +1,60 @@
+// The hash of an audit's inputs, so that a stored result can be checked against them.
+
+import { defaultAgeThresholds } from '../age-categories.ts'
+import { defaultRequirementProfiles } from './readiness.ts'
+import { resolveAuditOptions } from './run.ts'
+import type { AuditInputs, AuditOptions } from './types.ts'
+
+/**
+ * JSON with object keys sorted and every array sorted by its items' canonical text, so that the
+ * same data in any order gives the same text. Undefined properties are left out, as JSON does.
+ * Array order is treated as carrying no meaning, which holds for the audit's inputs: their
+ * entities are sets and the audit sorts its output itself.
+ */
+export function canonicalJson(value: unknown): string {
+  // This runs over every record of an audit, so it avoids building intermediate strings and
+  // arrays: a flat object goes to JSON.stringify whole, with its keys in sorted order. The default
+  // sorts compare UTF-16 code units, the same order as compareText.
+  if (Array.isArray(value)) {
+    const items = new Array<string>(value.length)
+    for (let i = 0; i < value.length; i++) items[i] = canonicalJson(value[i])
+    return `[${items.sort().join(',')}]`
+  }
+  if (value !== null && typeof value === 'object') {
+    const object = value as Record<string, unknown>
+    const keys = Object.keys(object).sort()
+    if (keys.every((key) => object[key] === null || typeof object[key] !== 'object')) {
+      return JSON.stringify(object, keys)
+    }
+    let text = ''
+    for (const key of keys) {
+      const item = object[key]
+      if (item === undefined) continue
+      text += `${text === '' ? '' : ','}${JSON.stringify(key)}:${canonicalJson(item)}`
+    }
+    return `{${text}}`
+  }
+  return JSON.stringify(value) ?? 'null'
+}
+
+/**
+ * SHA-256 (hex) of the canonical inputs and resolved options, through the Web Crypto API so the
+ * module stays free of I/O and runs in the browser and in Node alike. Defaults are filled in
+ * before hashing, so leaving an option out and passing its default give the same hash.
+ */
+export async function auditInputHash(
+  inputs: AuditInputs,
+  options: AuditOptions = {},
+): Promise<string> {
+  const canonical = canonicalJson({
+    inputs: {
+      ...inputs,
+      paces: inputs.paces ?? {},
+      profiles: inputs.profiles ?? defaultRequirementProfiles,
+      ageThresholds: inputs.ageThresholds ?? defaultAgeThresholds,
+    },
+    options: resolveAuditOptions(options),
+  })
+  const digest = await crypto.subtle.digest('SHA-256', new TextEncoder().encode(canonical))
+  return Array.from(new Uint8Array(digest), (byte) => byte.toString(16).padStart(2, '0')).join('')
+}
