@@ -12,6 +12,8 @@ export interface SignedInVisit {
   path: string
   /** The roles that may open it (the route's `meta.roles`, or every role). */
   roles: DemoRole[]
+  /** Where a role is sent instead (the board's overview is its summary). */
+  sends?: Partial<Record<DemoRole, string>>
 }
 
 const everyone: DemoRole[] = ['director', 'coach', 'clinician', 'board']
@@ -29,7 +31,7 @@ export const signedOutVisits: Record<string, string> = {
 }
 
 export const signedInVisits: Record<string, SignedInVisit> = {
-  home: { path: '/', roles: everyone },
+  home: { path: '/', roles: everyone, sends: { board: '/board' } },
   account: { path: '/account', roles: everyone },
   'no-access': { path: '/no-access?reason=role', roles: everyone },
   members: { path: '/members', roles: ['director'] },
