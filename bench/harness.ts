@@ -1,4 +1,8 @@
 import { performance } from 'node:perf_hooks'
+import pino from 'pino'
+import { createApp } from '../server/app.ts'
+import { parseEnv } from '../server/env.ts'
+import { createMailer } from '../server/mail/mailer.ts'
 import { createDatabase, type Database } from '../server/db/client.ts'
 import { applyMigrations } from '../server/db/migrate.ts'
 import {
@@ -49,4 +53,12 @@ export async function withBenchDatabase<T>(fn: (database: Database) => Promise<T
     await database.close()
     removeCluster(cluster)
   }
+}
+
+/** The app over a bench database, logging nothing; close its mailer when done. */
+export async function benchApp(database: Database, clientDir?: string) {
+  const env = parseEnv({ LOG_LEVEL: 'silent' })
+  const mailer = await createMailer(env)
+  const app = createApp({ mailer, env, database, logger: pino({ level: 'silent' }), clientDir })
+  return { app, mailer }
 }

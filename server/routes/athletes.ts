@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { athleteListQuerySchema, rosterImportSchema } from '../../shared/schemas/athletes.ts'
-import { progressEventInputSchema } from '../../shared/schemas/progress.ts'
+import { todayIso } from '../../shared/domain/access.ts'
+import { progressDueQuerySchema, progressEventInputSchema } from '../../shared/schemas/progress.ts'
 import type { AppContext } from '../context.ts'
 import { sendCsv, sendImportResult } from '../http/responses.ts'
 import {
@@ -12,6 +13,7 @@ import {
   updateAthlete,
 } from '../services/athletes.ts'
 import { eraseAthlete } from '../services/erasure.ts'
+import { progressDue } from '../services/progress-due.ts'
 import {
   athleteRecords,
   missingSkills,
@@ -28,7 +30,7 @@ const writers = ['director', 'coach'] as const
 
 /**
  * Athletes (erasing one for good), the roster CSV, progress events and records, and the coaches'
- * missing-skills list.
+ * missing-skills list and who has had nothing logged for a while.
  */
 export function athleteRoutes(ctx: AppContext): ClubRoute[] {
   return [
@@ -148,6 +150,15 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       handler: async (req, res) => {
         const { squadId } = z.object({ squadId: z.uuid().optional() }).parse(req.query)
         res.json(await missingSkills(ctx.db, req.club, { squadId }))
+      },
+    },
+    {
+      method: 'get',
+      path: '/progress-due',
+      allow: readers,
+      handler: async (req, res) => {
+        const { days } = progressDueQuerySchema.parse(req.query)
+        res.json(await progressDue(ctx.db, req.club, { days, today: todayIso() }))
       },
     },
   ]

@@ -153,3 +153,23 @@ export const missingSkillSchema = z.object({
   trailBy: z.number().nullable(),
 })
 export type MissingSkill = z.infer<typeof missingSkillSchema>
+
+/** GET /progress-due: who has had nothing logged for `days` days (28 unless asked). */
+export const progressDueQuerySchema = z.object({
+  days: z.coerce
+    .number('Give the number of days as a whole number.')
+    .int('Give the number of days as a whole number.')
+    .min(1, 'Give at least 1 day.')
+    .max(365, 'Give at most 365 days.')
+    .default(28),
+})
+
+export const dueAthleteSchema = z.object({
+  athleteId: z.uuid(),
+  athleteName: z.string(),
+  squadId: z.uuid(),
+  squadName: z.string(),
+  /** The day of the latest progress logged for them, on any element; null when none ever. */
+  lastEventOn: z.string().nullable(),
+})
+export type DueAthlete = z.infer<typeof dueAthleteSchema>

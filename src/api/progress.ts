@@ -1,6 +1,7 @@
 import {
   recordViewSchema,
   type CheckResultView,
+  type DueAthlete,
   type EventResult,
   type MissingSkill,
   type ProgressEventInput,
@@ -44,3 +45,7 @@ export function conflictRecord(err: unknown): RecordView | null {
   const parsed = recordViewSchema.safeParse(body?.error?.record)
   return parsed.success ? parsed.data : null
 }
+
+/** The readable athletes with nothing logged for `days` days (28 by default on the server). */
+export const listProgressDue = (clubId: string, days?: number) =>
+  request<DueAthlete[]>(`${club(clubId)}/progress-due`, { query: { days } })

@@ -159,6 +159,8 @@ router.beforeEach(async (to) => {
   if (!membership.accessOpen) return { name: 'no-access', query: { reason: 'window' } }
   if (to.meta.roles && !to.meta.roles.includes(membership.role))
     return { name: 'no-access', query: { reason: 'role' } }
+  // The board's page of its own is its summary.
+  if (to.name === 'home' && membership.role === 'board') return { name: 'board' }
   return true
 })
 

@@ -391,6 +391,11 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async () => ({ path: '/missing-skills' }),
   },
+  'GET /progress-due': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/progress-due?days=14' }),
+  },
   'GET /audits': { allow: readers, ok: 200, request: async () => ({ path: '/audits' }) },
   'POST /audits': {
     allow: ['director'],
