@@ -194,5 +194,11 @@ describe('the audit’s inputs as of a date', () => {
       if (id === archived) expect(inputs.paces?.[id]).toBeUndefined()
       else expect(inputs.paces?.[id]).toBeCloseTo(((i % 3) + 1) / 6, 12)
     })
+    // The same inside a transaction, whose one connection runs one query at a time.
+    const inTransaction = await database.db.transaction((tx) =>
+      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30'),
+    )
+    expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
+    expect(inTransaction.paces).toEqual(inputs.paces)
   }, 60_000)
 })
