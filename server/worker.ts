@@ -1,7 +1,7 @@
-import { setPriority } from 'node:os'
 import { pathToFileURL } from 'node:url'
 import { createDatabase } from './db/client.ts'
 import { EnvError, jobSettingsOf, parseEnv } from './env.ts'
+import { lowerProcessPriority } from './jobs/priority.ts'
 import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { createMailer } from './mail/mailer.ts'
@@ -17,12 +17,9 @@ const workerNiceness = 10
 export async function runWorker() {
   const env = parseEnv()
   // Where a worker shares cores with web processes, the requests go first: an audit can wait a
-  // moment, a person at a tablet should not. Raising one's own niceness needs no privilege.
-  try {
-    setPriority(workerNiceness)
-  } catch {
-    // A system that refuses leaves the worker at normal priority.
-  }
+  // moment, a person at a tablet should not. Raising one's own niceness needs no privilege; a
+  // system that refuses leaves the worker at normal priority.
+  lowerProcessPriority(workerNiceness)
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
   const logger = createLogger(env)
   const database = createDatabase(env.DATABASE_URL, logger)

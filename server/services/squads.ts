@@ -29,32 +29,48 @@ export async function assignCoach(db: DbOrTx, clubId: string, squadId: string, u
   await db.insert(coachSquads).values({ clubId, squadId, userId }).onConflictDoNothing()
 }
 
+// The coaches and the counts come with each squad, in one statement. Written out, because in a
+// query of one table Drizzle leaves column names unqualified, which inside a subquery would name
+// the subquery's own columns.
+const squadColumns = {
+  id: squads.id,
+  clubId: squads.clubId,
+  name: squads.name,
+  level: squads.level,
+  discipline: squads.discipline,
+  coachIds: sql<string[]>`array(select c.user_id from coach_squads c
+    where c.club_id = squads.club_id and c.squad_id = squads.id order by c.user_id)`,
+  athleteCount: sql<number>`(select count(*)::int from athletes a
+    where a.club_id = squads.club_id and a.squad_id = squads.id and a.archived_at is null)`,
+}
+
+const prepareClubSquads = (db: DbOrTx) =>
+  db
+    .select(squadColumns)
+    .from(squads)
+    .where(eq(squads.clubId, sql.placeholder('clubId')))
+    .orderBy(squads.name)
+    .prepare('')
+
+/**
+ * A whole club's list is asked for on most screens: its SQL is built once for each database
+ * handle (and sent unnamed, as in auth/lucia.ts), not again for every request.
+ */
+const clubSquadsOn = new WeakMap<DbOrTx, ReturnType<typeof prepareClubSquads>>()
+
 /** The squads the person may see, with their coaches and number of active athletes. */
 export async function listSquads(db: DbOrTx, access: ClubAccess): Promise<SquadView[]> {
   const readable = await readableSquadIds(db, access)
-  if (readable !== 'all' && readable.length === 0) return []
-  // One statement: the coaches and the counts come with each squad. Written out, because in a
-  // query of one table Drizzle leaves column names unqualified, which inside a subquery would
-  // name the subquery's own columns.
+  if (readable === 'all') {
+    let clubSquads = clubSquadsOn.get(db)
+    if (!clubSquads) clubSquadsOn.set(db, (clubSquads = prepareClubSquads(db)))
+    return clubSquads.execute({ clubId: access.clubId })
+  }
+  if (readable.length === 0) return []
   return db
-    .select({
-      id: squads.id,
-      clubId: squads.clubId,
-      name: squads.name,
-      level: squads.level,
-      discipline: squads.discipline,
-      coachIds: sql<string[]>`array(select c.user_id from coach_squads c
-        where c.club_id = squads.club_id and c.squad_id = squads.id order by c.user_id)`,
-      athleteCount: sql<number>`(select count(*)::int from athletes a
-        where a.club_id = squads.club_id and a.squad_id = squads.id and a.archived_at is null)`,
-    })
+    .select(squadColumns)
     .from(squads)
-    .where(
-      and(
-        eq(squads.clubId, access.clubId),
-        readable === 'all' ? undefined : inArray(squads.id, readable),
-      ),
-    )
+    .where(and(eq(squads.clubId, access.clubId), inArray(squads.id, readable)))
     .orderBy(squads.name)
 }
 

@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
-import { progressRecords } from '../../server/db/schema.ts'
+import { athletes, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
 import {
@@ -11,6 +11,7 @@ import {
   recordEvent,
   type HistoryEvent,
 } from '../../server/services/progress.ts'
+import { createSquad } from '../../server/services/squads.ts'
 import { freshDatabase } from '../support/database.ts'
 import { clubWithPeople, floorTucks } from '../support/fixtures.ts'
 
@@ -148,4 +149,56 @@ describe('the audit’s inputs as of a date', () => {
     ])
     expect(await backfillRecordTimelines(database.db)).toBe(0)
   })
+
+  it('reads every athlete of a squad larger than one read, each once, and none archived', async () => {
+    const squad = await createSquad(database.db, fx.club.id, {
+      name: 'Large squad',
+      level: 'junior',
+      discipline: 'artistic-women',
+    })
+    // 205 athletes: more than two reads of a hundred athletes. Athlete i reached step i mod 3 on
+    // the back tuck on 10 January, and nothing before.
+    const ids: string[] = []
+    const history: HistoryEvent[] = []
+    for (let i = 0; i < 205; i++) {
+      const { id } = await createAthlete(database.db, fx.club.id, {
+        givenName: 'Large',
+        familyName: `Athlete ${i}`,
+        birthYear: 2012,
+        squadId: squad.id,
+        discipline: 'artistic-women',
+      })
+      ids.push(id)
+      history.push(step(id, backTuck, i % 3, '2026-01-10'))
+    }
+    await appendHistory(database.db, fx.club.id, history)
+    const archived = ids[150]!
+    await database.db
+      .update(athletes)
+      .set({ archivedAt: new Date() })
+      .where(and(eq(athletes.clubId, fx.club.id), eq(athletes.id, archived)))
+
+    const inputs = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30')
+    const expected = ids.flatMap((id, i) =>
+      id === archived ? [] : [{ athleteId: id, elementId: backTuck, stepIndex: i % 3 }],
+    )
+    const byAthlete = (a: { athleteId: string }, b: { athleteId: string }) =>
+      a.athleteId < b.athleteId ? -1 : 1
+    expect(inputs.athletes.map((a) => a.id).sort()).toEqual(
+      ids.filter((id) => id !== archived).sort(),
+    )
+    expect([...inputs.records].sort(byAthlete)).toEqual(expected.sort(byAthlete))
+    // The window opens on 1 January: from below the first step (−1) to step s is s + 1 steps in
+    // 180 days, (s + 1) / 180 × 30 = (s + 1) / 6 steps per 30 days.
+    ids.forEach((id, i) => {
+      if (id === archived) expect(inputs.paces?.[id]).toBeUndefined()
+      else expect(inputs.paces?.[id]).toBeCloseTo(((i % 3) + 1) / 6, 12)
+    })
+    // The same inside a transaction, whose one connection runs one query at a time.
+    const inTransaction = await database.db.transaction((tx) =>
+      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30'),
+    )
+    expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
+    expect(inTransaction.paces).toEqual(inputs.paces)
+  }, 60_000)
 })

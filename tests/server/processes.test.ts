@@ -1,4 +1,5 @@
 import { spawn, type ChildProcess } from 'node:child_process'
+import { readdirSync, readFileSync } from 'node:fs'
 import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { freePort } from '../../server/cli/postgres.ts'
@@ -125,6 +126,24 @@ describe('two web processes and workers over one database', () => {
       .where(and(eq(audits.clubId, clubId), eq(audits.id, auditId!)))
     expect(stored).toHaveLength(1)
   }, 60_000)
+
+  // Linux keeps a niceness per thread (setpriority(2), "BUGS"); proc(5) gives each thread's
+  // niceness in field 19 of /proc/<pid>/task/<tid>/stat. The worker asks for niceness 10
+  // (server/worker.ts): every thread must have it, the garbage collector's and libuv's pool
+  // (which hashes the audit) included, not only the main thread.
+  it.runIf(process.platform === 'linux')(
+    'runs every thread of a worker at its lower priority',
+    () => {
+      const niceness = (tid: string) => {
+        const stat = readFileSync(`/proc/${worker.pid}/task/${tid}/stat`, 'utf8')
+        // Fields after the command name, which is in parentheses and may hold spaces.
+        return Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[16])
+      }
+      const threads = readdirSync(`/proc/${worker.pid}/task`)
+      expect(threads.length).toBeGreaterThan(1)
+      expect(threads.map(niceness)).toEqual(threads.map(() => 10))
+    },
+  )
 
   it('holds the sign-in limits across both processes', async () => {
     const victim = demoPeople.find((p) => p.role === 'board')!.email

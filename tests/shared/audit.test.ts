@@ -520,4 +520,16 @@ describe('auditInputHash', () => {
       '{"a":{"c":"x"},"b":[1,2,3]}',
     )
   })
+
+  // JSON text as RFC 8259 writes it, keys in UTF-16 code unit order: "10" before "9" before "b".
+  it('writes a flat object the same whatever order its keys come in, number-like keys included', () => {
+    const record = '{"athleteId":"a","elementId":"e","stepIndex":2}'
+    expect(canonicalJson({ athleteId: 'a', elementId: 'e', stepIndex: 2 })).toBe(record)
+    expect(canonicalJson({ stepIndex: 2, elementId: 'e', athleteId: 'a' })).toBe(record)
+    // An object lists number-like keys first, in numeric order: 9, 10, then b.
+    expect(canonicalJson({ b: null, 10: 'y', 9: 'x', a: undefined })).toBe(
+      '{"10":"y","9":"x","b":null}',
+    )
+    expect(canonicalJson([{ b: 1, a: 2 }, { a: 1 }])).toBe('[{"a":1},{"a":2,"b":1}]')
+  })
 })
