@@ -5,6 +5,8 @@ import { deliverMail } from '../mail/outbox.ts'
 import type { Mailer } from '../mail/mailer.ts'
 import { processAuditRun } from '../services/audit-runs.ts'
 import { processClubArchive } from '../services/club-archives.ts'
+import { closeReportPdfPool } from '../services/report-pdf-pool.ts'
+import { processReportPdf } from '../services/report-pdfs.ts'
 import { queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
 
 export interface JobWorkerOptions {
@@ -23,7 +25,7 @@ export interface JobWorker {
 }
 
 /**
- * Takes jobs from the queues and does them: audits, club archives and mail. Any number of workers, in any
+ * Takes jobs from the queues and does them: audits, club archives, PDF reports and mail. Any number of workers, in any
  * number of processes, share the queues; a job whose worker died is expired by the others'
  * maintenance and retried.
  */
@@ -46,6 +48,13 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
     pollingIntervalSeconds: settings.pollSeconds,
   }
   const ids: Partial<Record<QueueName, string>> = {}
+  // pg-boss waits out its polling interval after each job; a burst (forty PDFs asked for at
+  // once, a round of mail) would drain at one job a second. Having just finished one, a worker
+  // looks for the next at once, and waits only when it finds none.
+  const next = (queue: QueueName) => {
+    const id = ids[queue]
+    if (id) boss.notifyWorker(id)
+  }
   ids[queues.auditRun] = await boss.work<{ clubId: string; runId: string }>(
     queues.auditRun,
     workOptions,
@@ -63,6 +72,19 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
       await processClubArchive(db, logger, { ...job!.data, lastAttempt })
     },
   )
+  ids[queues.reportPdf] = await boss.work<{ clubId: string; reportPdfId: string }>(
+    queues.reportPdf,
+    workOptions,
+    async ([job]) => {
+      const lastAttempt =
+        job!.retryCount >= (job!.retryLimit ?? limits[queues.reportPdf].retryLimit)
+      try {
+        await processReportPdf(db, logger, { ...job!.data, lastAttempt })
+      } finally {
+        next(queues.reportPdf)
+      }
+    },
+  )
   ids[queues.mail] = await boss.work<{ outboxId: string }>(
     queues.mail,
     workOptions,
@@ -75,14 +97,16 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
           'mail not sent yet',
         )
         throw err
+      } finally {
+        next(queues.mail)
       }
     },
   )
   return {
-    wake(queue) {
-      const id = ids[queue]
-      if (id) boss.notifyWorker(id)
+    wake: next,
+    async stop(timeoutMs = 10_000) {
+      await boss.stop({ graceful: true, timeout: timeoutMs, wait: true })
+      await closeReportPdfPool()
     },
-    stop: (timeoutMs = 10_000) => boss.stop({ graceful: true, timeout: timeoutMs, wait: true }),
   }
 }
