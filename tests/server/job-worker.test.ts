@@ -7,6 +7,7 @@ import { getReportPdf, submitReportPdf } from '../../server/services/report-pdfs
 import { testApp, testJobSettings, type TestApp } from '../support/app.ts'
 import { freshDatabase } from '../support/database.ts'
 import { clubWithPeople } from '../support/fixtures.ts'
+import type { ReportPdfJob } from '../../shared/schemas/report-pdfs.ts'
 
 let database: Database
 let t: TestApp
@@ -27,7 +28,7 @@ describe('a job worker', () => {
   it('takes the next job as soon as it has finished one, not at its next poll', async () => {
     const fx = await clubWithPeople(database.db, 'drain')
     const access = { clubId: fx.club.id, userId: fx.people.director.id, role: 'director' as const }
-    const pdfs = []
+    const pdfs: ReportPdfJob[] = []
     for (let i = 0; i < 3; i++) {
       const auditId = await runAndStore(database.db, access, { squadId: null })
       pdfs.push(await submitReportPdf(database.db, t.context.jobs, access, auditId))
