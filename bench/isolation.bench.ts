@@ -1,22 +1,25 @@
-import { spawn } from 'node:child_process'
 import { performance } from 'node:perf_hooks'
 import { and, eq } from 'drizzle-orm'
 import { hashPassword } from '../server/auth/password.ts'
 import { auditRuns, users } from '../server/db/schema.ts'
 import { auditBenchAsOf, buildAuditClub } from './audit.bench.ts'
 import { withBenchDatabase } from './harness.ts'
-import { appEnvironment, p99, paced, startServer } from './load.ts'
+import {
+  appEnvironment,
+  p99,
+  paced,
+  sessionCookie,
+  startServer,
+  startWorker,
+  within,
+  type Window,
+} from './load.ts'
 
 const password = 'bench-isolation-2026'
 const audits = 8
 /** A steady trickle of health checks, as monitoring and a few people would send. */
 const perSecond = 200
 const idleMs = 1500
-
-interface Window {
-  from: number
-  to: number
-}
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
@@ -36,27 +39,9 @@ export default async function isolationBench() {
       .where(eq(users.id, access.userId))
     const env = appEnvironment(database.url)
     const web = await startServer('app', env)
-    const worker = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
-      env: { PATH: process.env.PATH ?? '', PUBLIC_URL: web.url, ...env },
-      stdio: ['ignore', 'pipe', 'inherit'],
-    })
-    const workerExited = new Promise<void>((resolve) => worker.once('exit', () => resolve()))
-    await new Promise<void>((resolve, reject) => {
-      worker.once('exit', (code) => reject(new Error(`the worker exited (${code})`)))
-      worker.stdout.on('data', (chunk: Buffer) => {
-        if (chunk.toString().includes('worker started')) resolve()
-      })
-    })
+    const worker = await startWorker(env, web.url)
     try {
-      const signIn = await fetch(`${web.url}/api/auth/sign-in`, {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ email: 'audit@bench.invalid', password }),
-      })
-      const cookie = signIn.headers
-        .getSetCookie()
-        .map((c) => c.split(';')[0]!)
-        .find((c) => c.startsWith('twofold_session='))!
+      const cookie = await sessionCookie(web.url, 'audit@bench.invalid', password)
 
       const checks = paced(`${web.url}/api/health`, perSecond)
       await sleep(3000)
@@ -95,25 +80,19 @@ export default async function isolationBench() {
 
       const failed = checks.responses.filter((r) => r.status !== 200).length
       if (failed) throw new Error(`${failed} health checks did not answer 200`)
-      // A check counts for a stretch when it was in flight at any moment of it.
-      const within = (windows: Window[]) =>
-        checks.responses
-          .filter((r) => windows.some((w) => r.at >= w.from && r.at - r.ms <= w.to))
-          .map((r) => r.ms)
-      const idleMs99 = p99(within(idle))
-      const busyMs99 = p99(within(busy))
+      const idleMs99 = p99(within(checks, idle))
+      const busyMs99 = p99(within(checks, busy))
       const seconds = busy.map((w) => ((w.to - w.from) / 1000).toFixed(1)).join(', ')
       console.log(`\nGET /api/health on the web process, ${perSecond} checks a second`)
       console.log(
-        `  while ${audits} audits of 1,000 × 300 ran on a worker process (${seconds} s): p99 ${busyMs99.toFixed(1)} ms (${within(busy).length} checks)`,
+        `  while ${audits} audits of 1,000 × 300 ran on a worker process (${seconds} s): p99 ${busyMs99.toFixed(1)} ms (${within(checks, busy).length} checks)`,
       )
       console.log(
-        `  baseline (the worker idle, in between): p99 ${idleMs99.toFixed(1)} ms (${within(idle).length} checks)`,
+        `  baseline (the worker idle, in between): p99 ${idleMs99.toFixed(1)} ms (${within(checks, idle).length} checks)`,
       )
       console.log(`  ratio (p99): ${(busyMs99 / idleMs99).toFixed(2)}×`)
     } finally {
-      worker.kill('SIGTERM')
-      await Promise.all([web.stop(), workerExited])
+      await Promise.all([web.stop(), worker.stop()])
     }
   })
 }

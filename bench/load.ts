@@ -187,8 +187,11 @@ export function reportRates(
 }
 
 export interface Paced {
-  /** Each response: when it arrived (performance.now()), how long it took (ms), its status. */
-  responses: { at: number; ms: number; status: number }[]
+  /**
+   * Each response: when it arrived (performance.now()), how long it took (ms), its status (0 and
+   * the error's code when there was none).
+   */
+  responses: { at: number; ms: number; status: number; error?: string }[]
   /** Stops sending and resolves once every request sent has been answered. */
   stop(): Promise<void>
 }
@@ -205,18 +208,25 @@ export function paced(url: string, perSecond: number): Paced {
   const send = () => {
     const start = performance.now()
     const done = new Promise<void>((resolve) => {
-      const req = http.get(url, { agent }, (res) => {
-        res.resume()
-        res.on('end', () => {
+      const attempt = () => {
+        const req = http.get(url, { agent }, (res) => {
+          res.resume()
+          res.on('end', () => {
+            const at = performance.now()
+            responses.push({ at, ms: at - start, status: res.statusCode ?? 0 })
+            resolve()
+          })
+        })
+        req.on('error', (err: NodeJS.ErrnoException) => {
+          // A kept-alive socket the server closed as the request went out: sent again on a new
+          // one, as browsers do, and timed from the first send.
+          if (req.reusedSocket && err.code === 'ECONNRESET') return attempt()
           const at = performance.now()
-          responses.push({ at, ms: at - start, status: res.statusCode ?? 0 })
+          responses.push({ at, ms: at - start, status: 0, error: err.code ?? err.message })
           resolve()
         })
-      })
-      req.on('error', () => {
-        responses.push({ at: performance.now(), ms: performance.now() - start, status: 0 })
-        resolve()
-      })
+      }
+      attempt()
     })
     pending.add(done)
     void done.then(() => pending.delete(done))
@@ -236,4 +246,54 @@ export function paced(url: string, perSecond: number): Paced {
 export function p99(samples: number[]) {
   const sorted = [...samples].sort((a, b) => a - b)
   return sorted[Math.min(sorted.length - 1, Math.floor(0.99 * sorted.length))]!
+}
+
+/** A stretch of a benchmark run, in performance.now() milliseconds. */
+export interface Window {
+  from: number
+  to: number
+}
+
+/** The paced checks in flight at any moment of one of `windows`, their times in ms. */
+export const within = (checks: Paced, windows: Window[]) =>
+  checks.responses
+    .filter((r) => windows.some((w) => r.at >= w.from && r.at - r.ms <= w.to))
+    .map((r) => r.ms)
+
+/**
+ * Starts a worker process (`server/worker.ts`), as production runs it apart from the web
+ * processes, and resolves once it has started; `stop()` sends SIGTERM and waits for it to exit.
+ */
+export async function startWorker(env: Record<string, string>, publicUrl: string) {
+  const worker = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
+    env: { PATH: process.env.PATH ?? '', PUBLIC_URL: publicUrl, ...env },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  })
+  const exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()))
+  await new Promise<void>((resolve, reject) => {
+    worker.once('exit', (code) => reject(new Error(`the worker exited (${code})`)))
+    worker.stdout.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('worker started')) resolve()
+    })
+  })
+  return {
+    async stop() {
+      worker.kill('SIGTERM')
+      await exited
+    },
+  }
+}
+
+/** Signs in at a running server and answers the session cookie to send along. */
+export async function sessionCookie(url: string, email: string, password: string) {
+  const signIn = await fetch(`${url}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
+  })
+  if (signIn.status !== 200) throw new Error(`sign-in of ${email} failed: ${signIn.status}`)
+  return signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0]!)
+    .find((c) => c.startsWith('twofold_session='))!
 }

@@ -10,7 +10,6 @@ import type { AppContext } from './context.ts'
 import { EnvError, jobSettingsOf, parseEnv, type Env } from './env.ts'
 import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
-import { closeReportPdfPool } from './services/report-pdf-pool.ts'
 import { createMailer } from './mail/mailer.ts'
 import { projectDir } from './paths.ts'
 
@@ -95,7 +94,6 @@ export async function serve(
             await database.close()
           })(),
           mailer.close(),
-          closeReportPdfPool(),
         ]).then(() => resolve())
       })
       server.closeIdleConnections()

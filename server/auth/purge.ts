@@ -6,14 +6,16 @@ import {
   clubSignups,
   passwordResets,
   rateLimits,
+  reportPdfFiles,
+  reportPdfs,
   sessions,
 } from '../db/schema.ts'
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime
  * moves the expiry no further, so it is covered), reset and club sign-up links that expired or
- * were used, limiter counters whose window closed, and club archives past their 24 hours (the
- * zip first, then its row). Safe to run from every process at once.
+ * were used, limiter counters whose window closed, club archives past their 24 hours and PDF
+ * reports past their hour (the bytes first, then the row). Safe to run from every process at once.
  */
 export async function purgeExpired(db: Db, now = new Date()) {
   const ended = await db
@@ -45,12 +47,24 @@ export async function purgeExpired(db: Db, now = new Date()) {
     .delete(clubArchives)
     .where(lt(clubArchives.expiresAt, now))
     .returning({ id: clubArchives.id })
+  const expiredPdfs = db
+    .select({ clubId: reportPdfs.clubId, id: reportPdfs.id })
+    .from(reportPdfs)
+    .where(lt(reportPdfs.expiresAt, now))
+  await db
+    .delete(reportPdfFiles)
+    .where(inArray(sql`(${reportPdfFiles.clubId}, ${reportPdfFiles.reportPdfId})`, expiredPdfs))
+  const pdfs = await db
+    .delete(reportPdfs)
+    .where(lt(reportPdfs.expiresAt, now))
+    .returning({ id: reportPdfs.id })
   return {
     sessions: ended.length,
     resets: resets.length,
     signups: signups.length,
     counters: counters.length,
     archives: archives.length,
+    reportPdfs: pdfs.length,
   }
 }
 

@@ -642,6 +642,63 @@ export const clubArchiveFiles = pgTable(
 )
 
 /**
+ * A PDF report of an audit asked for by one person, drawn by a worker. The row carries the
+ * drawing's progress, so that any web process answers a poll; the bytes live in
+ * report_pdf_files, which no poll reads. `squadIds` is the part of the club the person could read
+ * when asking (null: every squad): the worker draws that, and the PDF is handed only to the same
+ * person with the same reach. Kept an hour, then purged.
+ */
+export const reportPdfs = pgTable(
+  'report_pdfs',
+  {
+    clubId: uuid()
+      .notNull()
+      .references(() => clubs.id, { onDelete: 'cascade' }),
+    id: uuid().notNull().defaultRandom(),
+    auditId: uuid().notNull(),
+    requestedBy: text().references(() => users.id, { onDelete: 'cascade' }),
+    squadIds: jsonb().$type<string[] | null>(),
+    jobId: uuid(),
+    status: text().$type<'running' | 'done' | 'failed'>().notNull().default('running'),
+    phase: text().notNull().default('queued'),
+    done: integer().notNull().default(0),
+    total: integer().notNull().default(2),
+    error: text(),
+    createdAt: createdAt(),
+    finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    /** A download after this answers 410; the purge deletes the row and its bytes. */
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    byteSize: integer(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    foreignKey({
+      columns: [t.clubId, t.auditId],
+      foreignColumns: [audits.clubId, audits.id],
+    }).onDelete('cascade'),
+    index('report_pdfs_audit_idx').on(t.clubId, t.auditId, t.requestedBy),
+    index('report_pdfs_expires_idx').on(t.expiresAt),
+  ],
+)
+
+/** The bytes of a drawn PDF report, apart from its row so that polls never read them. */
+export const reportPdfFiles = pgTable(
+  'report_pdf_files',
+  {
+    clubId: uuid().notNull(),
+    reportPdfId: uuid().notNull(),
+    bytes: bytea().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.reportPdfId] }),
+    foreignKey({
+      columns: [t.clubId, t.reportPdfId],
+      foreignColumns: [reportPdfs.clubId, reportPdfs.id],
+    }).onDelete('cascade'),
+  ],
+)
+
+/**
  * Mail on its way: written in the same transaction as the change that causes it and sent by a
  * worker, retried while the provider is down. Once sent, the text (which may hold a link that
  * signs someone in) is cleared.

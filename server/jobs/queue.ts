@@ -8,6 +8,7 @@ export const queues = {
   mail: 'mail',
   clubArchive: 'club-archive',
   recommendationReminder: 'recommendation-reminder',
+  reportPdf: 'report-pdf',
 } as const
 export type QueueName = (typeof queues)[keyof typeof queues]
 
@@ -33,7 +34,13 @@ export const defaultJobSettings: JobSettings = {
 export const archiveTimeoutSeconds = 30 * 60
 
 /**
- * Retries with back-off: an audit or an archive a few times; mail for about a day while SMTP is
+ * How long drawing a PDF report may take before another worker takes it over: the demo club's
+ * takes about 0.2 s of CPU and a large club's a few seconds, so this is a wide margin.
+ */
+export const reportPdfTimeoutSeconds = 120
+
+/**
+ * Retries with back-off: an audit, an archive or a PDF report a few times; mail for about a day while SMTP is
  * down.
  */
 export function queueOptions(settings: JobSettings) {
@@ -56,6 +63,12 @@ export function queueOptions(settings: JobSettings) {
       retryDelay: 60,
       retryBackoff: true,
       expireInSeconds: 60,
+    },
+    [queues.reportPdf]: {
+      retryLimit: 2,
+      retryDelay: 2,
+      retryBackoff: true,
+      expireInSeconds: reportPdfTimeoutSeconds,
     },
   } satisfies Record<QueueName, PgBoss.Queue extends infer Q ? Omit<Q, 'name'> : never>
 }
@@ -105,10 +118,13 @@ export function createJobQueue(db: DbOrTx, settings: JobSettings = defaultJobSet
       if (waker) setTimeout(() => waker?.(queue), 30).unref()
       return id!
     },
-    /** The state of a job, from the live or the archived jobs. */
-    async state(queue: QueueName, id: string) {
+    /**
+     * True when the job will not run again (its last attempt failed, or it was cancelled), from
+     * the live or the archived jobs.
+     */
+    async gaveUp(queue: QueueName, id: string) {
       const job = await boss.getJobById(queue, id, { includeArchive: true, db: jobExecutor(db) })
-      return job?.state ?? null
+      return job?.state === 'failed' || job?.state === 'cancelled'
     },
     attachWorker(wake: (queue: QueueName) => void) {
       waker = wake

@@ -6,6 +6,8 @@ import type { Mailer } from '../mail/mailer.ts'
 import { processAuditRun } from '../services/audit-runs.ts'
 import { processClubArchive } from '../services/club-archives.ts'
 import { remindRecommendation, type ReminderJob } from '../services/recommendation-mail.ts'
+import { closeReportPdfPool } from '../services/report-pdf-pool.ts'
+import { processReportPdf } from '../services/report-pdfs.ts'
 import { createJobQueue, queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
 
 export interface JobWorkerOptions {
@@ -24,9 +26,9 @@ export interface JobWorker {
 }
 
 /**
- * Takes jobs from the queues and does them: audits, club archives, reminders and mail. Any number of workers, in any
- * number of processes, share the queues; a job whose worker died is expired by the others'
- * maintenance and retried.
+ * Takes jobs from the queues and does them: audits, club archives, PDF reports, reminders and
+ * mail. Any number of workers, in any number of processes, share the queues; a job whose worker
+ * died is expired by the others' maintenance and retried.
  */
 export async function startJobWorker(options: JobWorkerOptions): Promise<JobWorker> {
   const { db, mailer, logger, settings } = options
@@ -47,6 +49,13 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
     pollingIntervalSeconds: settings.pollSeconds,
   }
   const ids: Partial<Record<QueueName, string>> = {}
+  // pg-boss waits out its polling interval after each job; a burst (forty PDFs asked for at
+  // once, a round of mail) would drain at one job a second. Having just finished one, a worker
+  // looks for the next at once, and waits only when it finds none.
+  const next = (queue: QueueName) => {
+    const id = ids[queue]
+    if (id) boss.notifyWorker(id)
+  }
   ids[queues.auditRun] = await boss.work<{ clubId: string; runId: string }>(
     queues.auditRun,
     workOptions,
@@ -64,6 +73,19 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
       await processClubArchive(db, logger, { ...job!.data, lastAttempt })
     },
   )
+  ids[queues.reportPdf] = await boss.work<{ clubId: string; reportPdfId: string }>(
+    queues.reportPdf,
+    workOptions,
+    async ([job]) => {
+      const lastAttempt =
+        job!.retryCount >= (job!.retryLimit ?? limits[queues.reportPdf].retryLimit)
+      try {
+        await processReportPdf(db, logger, { ...job!.data, lastAttempt })
+      } finally {
+        next(queues.reportPdf)
+      }
+    },
+  )
   ids[queues.mail] = await boss.work<{ outboxId: string }>(
     queues.mail,
     workOptions,
@@ -76,27 +98,30 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
           'mail not sent yet',
         )
         throw err
+      } finally {
+        next(queues.mail)
       }
     },
   )
   // Reminders put mail on the queue in their own transaction.
   const sender = createJobQueue(db, settings)
-  sender.attachWorker((queue) => {
-    const id = ids[queue]
-    if (id) boss.notifyWorker(id)
-  })
+  sender.attachWorker(next)
   ids[queues.recommendationReminder] = await boss.work<ReminderJob>(
     queues.recommendationReminder,
     workOptions,
     async ([job]) => {
-      await remindRecommendation(db, sender, job!.data)
+      try {
+        await remindRecommendation(db, sender, job!.data)
+      } finally {
+        next(queues.recommendationReminder)
+      }
     },
   )
   return {
-    wake(queue) {
-      const id = ids[queue]
-      if (id) boss.notifyWorker(id)
+    wake: next,
+    async stop(timeoutMs = 10_000) {
+      await boss.stop({ graceful: true, timeout: timeoutMs, wait: true })
+      await closeReportPdfPool()
     },
-    stop: (timeoutMs = 10_000) => boss.stop({ graceful: true, timeout: timeoutMs, wait: true }),
   }
 }

@@ -1,5 +1,4 @@
 import { and, eq } from 'drizzle-orm'
-import type { Response } from 'express'
 import { z } from 'zod'
 import { disciplines } from '../../shared/domain/club.ts'
 import {
@@ -11,11 +10,9 @@ import { publicOrigin, type AppContext } from '../context.ts'
 import { enqueueMail } from '../mail/outbox.ts'
 import { getAuditRun, submitAuditRun } from '../services/audit-runs.ts'
 import { clubs, memberships, users } from '../db/schema.ts'
-import { bounded, boundedQueue, type BoundedLimits, type BoundedQueue } from '../http/bounded.ts'
 import { AppError } from '../http/errors.ts'
 import { sendCsv } from '../http/responses.ts'
 import { gapsCsv, headlineCsv } from '../services/audit-exports.ts'
-import { drawReportPdf } from '../services/report-pdf-pool.ts'
 import { clubAgeThresholds, clubProfiles } from '../services/audit-inputs.ts'
 import {
   boardSummary,
@@ -28,7 +25,7 @@ import {
   saveAgeThresholds,
   saveProfile,
 } from '../services/audits.ts'
-import type { ClubRequest, ClubRoute } from './club-routes.ts'
+import type { ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such audit.') })
 const readers = ['director', 'coach', 'clinician'] as const
@@ -39,22 +36,8 @@ const profileId = (raw: unknown) => {
   return id.data
 }
 
-/**
- * PDF reports of one app: a report is read whole (megabytes for a large club) and drawn on one
- * worker thread (about 0.2 s of CPU for the demo club's). One at a time: the requests waiting
- * their turn hold neither a pool connection nor a large report in memory.
- */
-export const pdfLimits: BoundedLimits = { running: 1, waiting: 100, retryAfterSeconds: 5 }
-
-const pdfQueues = new WeakMap<AppContext, BoundedQueue>()
-
-/** The queue the PDF reports of the app built over `ctx` go through (its peak, for tests). */
-export const pdfQueueOf = (ctx: AppContext) => pdfQueues.get(ctx)
-
 /** Audits, their exports and settings, and the board's summary. */
-export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubRoute[] {
-  const pdfJobs = boundedQueue(limits.pdf)
-  pdfQueues.set(ctx, pdfJobs)
+export function auditRoutes(ctx: AppContext): ClubRoute[] {
   const clubName = async (clubId: string) =>
     (await ctx.db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId)))[0]!.name
   return [
@@ -148,22 +131,6 @@ export function auditRoutes(ctx: AppContext, limits = { pdf: pdfLimits }): ClubR
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
         sendCsv(res, `headline-${report.audit.asOf}.csv`, headlineCsv(report))
       },
-    },
-    {
-      method: 'get',
-      path: '/audits/:id/report.pdf',
-      allow: readers,
-      // Loading and drawing both take their turn: the queue, not the pool, holds the rest.
-      handler: bounded(pdfJobs, async (req: ClubRequest, res: Response) => {
-        const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
-        const pdf = await drawReportPdf(report, await clubName(req.club.clubId))
-        res.setHeader('Content-Type', 'application/pdf')
-        res.setHeader(
-          'Content-Disposition',
-          `attachment; filename="audit-${report.audit.asOf}.pdf"`,
-        )
-        res.send(pdf)
-      }),
     },
     {
       method: 'get',

@@ -6,6 +6,7 @@ import { catalogueRoutes } from './catalogue.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
+import { reportPdfRoutes } from './report-pdfs.ts'
 import { squadRoutes } from './squads.ts'
 import { visitRoutes } from './visits.ts'
 
@@ -18,6 +19,7 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...squadRoutes(ctx),
     ...athleteRoutes(ctx),
     ...auditRoutes(ctx),
+    ...reportPdfRoutes(ctx),
     ...archiveRoutes(ctx),
     ...visitRoutes(ctx),
   ]

@@ -61,8 +61,7 @@ export async function getAuditRun(db: Db, jobs: JobQueue, clubId: string, id: st
     .where(and(eq(auditRuns.clubId, clubId), eq(auditRuns.id, id)))
   if (!row) throw notFound('No such audit run.')
   if (row.status === 'running' && row.jobId) {
-    const state = await jobs.state(queues.auditRun, row.jobId)
-    if (state === 'failed' || state === 'cancelled') {
+    if (await jobs.gaveUp(queues.auditRun, row.jobId)) {
       return view({ ...row, status: 'failed', error: failedMessage })
     }
   }

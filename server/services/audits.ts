@@ -289,21 +289,33 @@ async function auditRow(db: DbOrTx, clubId: string, id: string) {
 
 /** A report; for a coach the athlete rows are limited to their squads. */
 export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Promise<AuditReport> {
-  const row = await auditRow(db, access.clubId, id)
-  const names = await squadNames(db, access.clubId)
+  return reportWithin(db, access.clubId, id, await readableSquadIds(db, access))
+}
+
+/**
+ * The report of an audit limited to the squads in `readable`, as someone with that reach reads
+ * it (a PDF drawn by a worker for the person who asked).
+ */
+export async function reportWithin(
+  db: DbOrTx,
+  clubId: string,
+  id: string,
+  readable: 'all' | string[],
+): Promise<AuditReport> {
+  const row = await auditRow(db, clubId, id)
+  const names = await squadNames(db, clubId)
   const scope = await db
     .select(summaryColumns)
     .from(audits)
     .where(
       and(
-        eq(audits.clubId, access.clubId),
+        eq(audits.clubId, clubId),
         row.squadId ? eq(audits.squadId, row.squadId) : isNull(audits.squadId),
       ),
     )
   const self = scope.find((r) => r.id === row.id)!
   const { previous, comparison } = changesOf(scope, self)
   const full = unpackAuditResult(row.result)
-  const readable = await readableSquadIds(db, access)
   const keep = (squadId: string) => readable === 'all' || readable.includes(squadId)
   const result: AuditResult = {
     ...full,
@@ -327,7 +339,7 @@ export async function getReport(db: DbOrTx, access: ClubAccess, id: string): Pro
             familyName: athletes.familyName,
           })
           .from(athletes)
-          .where(and(eq(athletes.clubId, access.clubId), inArray(athletes.id, ids)))
+          .where(and(eq(athletes.clubId, clubId), inArray(athletes.id, ids)))
   return {
     audit: summary(self, names, scope),
     result,

@@ -65,8 +65,7 @@ export async function getClubArchive(db: Db, jobs: JobQueue, clubId: string, id:
   const [row] = await db.select().from(clubArchives).where(whereArchive(clubId, id))
   if (!row) throw notFound('No such archive.')
   if (row.status === 'running' && row.jobId) {
-    const state = await jobs.state(queues.clubArchive, row.jobId)
-    if (state === 'failed' || state === 'cancelled') {
+    if (await jobs.gaveUp(queues.clubArchive, row.jobId)) {
       return view({ ...row, status: 'failed', error: failedMessage })
     }
   }

@@ -27,6 +27,8 @@ import {
   progressEvents,
   progressRecords,
   progressionTemplates,
+  reportPdfFiles,
+  reportPdfs,
   requirementProfiles,
   sessions,
   squads,
@@ -40,7 +42,8 @@ const mismatch = (message: string) =>
 /**
  * Erases an athlete for good, in one transaction: their progress history and records, then the
  * athlete. Stored audits keep their figures; where they listed the athlete, the athlete's id is
- * replaced by a new one that nothing else holds, and reports show no name for it.
+ * replaced by a new one that nothing else holds, and reports show no name for it; PDF reports
+ * already drawn are deleted.
  */
 export async function eraseAthlete(
   db: DbOrTx,
@@ -73,6 +76,9 @@ export async function eraseAthlete(
       .delete(athletes)
       .where(and(eq(athletes.clubId, access.clubId), eq(athletes.id, athleteId)))
     await unlinkFromAudits(tx, access.clubId, athleteId)
+    // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
+    await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
+    await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
   })
 }
 
@@ -117,6 +123,8 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
       progressRecords,
       progressEvents,
       auditRuns,
+      reportPdfFiles,
+      reportPdfs,
       audits,
       athletes,
       coachSquads,

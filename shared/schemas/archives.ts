@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { jobProgressSchema } from './jobs.ts'
 
 /** What a club archive's build is doing, in the order it does it. */
 export const archivePhases = [
@@ -20,17 +21,7 @@ export type ArchivePhase = (typeof archivePhases)[number]
  * POST /archives and GET /archives/:id: an archive of the club and how far its build has got.
  * `expired` once its 24 hours are over (the download then answers 410).
  */
-export const clubArchiveJobSchema = z.object({
-  id: z.uuid(),
-  status: z.enum(['running', 'done', 'failed', 'expired']),
-  phase: z.string(),
-  done: z.number().int(),
-  total: z.number().int(),
-  error: z.string().nullable(),
-  createdAt: z.string(),
-  expiresAt: z.string(),
-  /** Size of the zip in bytes, once built. */
-  bytes: z.number().int().nullable(),
+export const clubArchiveJobSchema = jobProgressSchema.extend({
   /** SHA-256 of the zip (hex), once built. */
   sha256: z.string().nullable(),
 })

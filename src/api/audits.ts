@@ -9,6 +9,7 @@ import type {
   BoardSummary,
   RequirementProfileInput,
 } from '@shared/schemas/audits'
+import type { ReportPdfJob } from '@shared/schemas/report-pdfs'
 import { request } from './http'
 
 const club = (clubId: string) => `/clubs/${clubId}`
@@ -77,4 +78,12 @@ const exportUrl = (clubId: string, id: string, file: string) =>
   `/api${club(clubId)}/audits/${id}/${file}`
 export const gapsCsvUrl = (clubId: string, id: string) => exportUrl(clubId, id, 'gaps.csv')
 export const headlineCsvUrl = (clubId: string, id: string) => exportUrl(clubId, id, 'headline.csv')
-export const reportPdfUrl = (clubId: string, id: string) => exportUrl(clubId, id, 'report.pdf')
+
+/** Asks for the audit's PDF report, drawn by a worker for what the person reads. */
+export const startReportPdf = (clubId: string, auditId: string) =>
+  request<ReportPdfJob>(`${club(clubId)}/audits/${auditId}/report-pdfs`, { method: 'POST' })
+export const getReportPdf = (clubId: string, id: string) =>
+  request<ReportPdfJob>(`${club(clubId)}/report-pdfs/${id}`)
+/** The drawn PDF itself, for a link: the browser saves it under the name the server gives. */
+export const reportPdfDownloadUrl = (clubId: string, id: string) =>
+  `/api${club(clubId)}/report-pdfs/${id}/download`

@@ -142,17 +142,8 @@ test('migrated and served compiled: health, the client, a PDF drawn on its worke
       await fetch(`${base}/api/clubs/${activeClubId}/audits`, { headers: { cookie } })
     ).json()) as { id: string }[]
     expect(audits.length).toBeGreaterThan(0)
-    const pdf = await fetch(
-      `${base}/api/clubs/${activeClubId}/audits/${audits[0]!.id}/report.pdf`,
-      {
-        headers: { cookie },
-      },
-    )
-    expect(pdf.status).toBe(200)
-    const bytes = Buffer.from(await pdf.arrayBuffer())
-    expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-')
-
-    // A compiled worker does the audits and sends the mail the web process queued.
+    // A compiled worker does the audits and the PDF reports, and sends the mail the web process
+    // queued.
     const worker = spawn(process.execPath, [compiledWorker], {
       cwd: projectDir,
       env: productionEnv({
@@ -184,6 +175,26 @@ test('migrated and served compiled: health, the client, a PDF drawn on its worke
           { timeout: 30_000 },
         )
         .toBe('done')
+      // The PDF report too, drawn on the compiled drawing thread of the worker.
+      const asked = await fetch(
+        `${base}/api/clubs/${activeClubId}/audits/${audits[0]!.id}/report-pdfs`,
+        { method: 'POST', headers: { cookie } },
+      )
+      expect(asked.status).toBe(202)
+      const { id: pdfId } = (await asked.json()) as { id: string }
+      const pdfUrl = `${base}/api/clubs/${activeClubId}/report-pdfs/${pdfId}`
+      await expect
+        .poll(
+          async () =>
+            ((await (await fetch(pdfUrl, { headers: { cookie } })).json()) as { status: string })
+              .status,
+          { timeout: 30_000 },
+        )
+        .toBe('done')
+      const pdf = await fetch(`${pdfUrl}/download`, { headers: { cookie } })
+      expect(pdf.status).toBe(200)
+      const bytes = Buffer.from(await pdf.arrayBuffer())
+      expect(bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-')
       const reset = await fetch(`${base}/api/auth/password-reset/request`, {
         method: 'POST',
         headers: { 'Content-Type': 'application/json' },

@@ -17,9 +17,13 @@ export function recordRequests(page: Page): string[] {
   return urls
 }
 
-/** Runs axe on the page as it is and fails on any critical or serious violation, naming them. */
-export async function expectNoSeriousAxeViolations(page: Page) {
-  const { violations } = await new AxeBuilder({ page }).analyze()
+/**
+ * Runs axe on the page as it is (or on the part matching `within`) and fails on any critical or
+ * serious violation, naming them.
+ */
+export async function expectNoSeriousAxeViolations(page: Page, within?: string) {
+  const builder = new AxeBuilder({ page })
+  const { violations } = await (within ? builder.include(within) : builder).analyze()
   const serious = violations
     .filter((v) => v.impact === 'critical' || v.impact === 'serious')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.length})`)

@@ -10,6 +10,7 @@ import { createAthlete } from '../../server/services/athletes.ts'
 import { createProfile, runAndStore } from '../../server/services/audits.ts'
 import { createElement, listElements } from '../../server/services/catalogue.ts'
 import { processClubArchive, submitClubArchive } from '../../server/services/club-archives.ts'
+import { processReportPdf, submitReportPdf } from '../../server/services/report-pdfs.ts'
 import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { createSquad } from '../../server/services/squads.ts'
@@ -32,8 +33,11 @@ type Fixture = Awaited<ReturnType<typeof clubWithPeople>> & {
 interface Row {
   allow: Role[]
   ok: number
-  /** The request; `clubId` when it acts on a club of its own rather than the fixture's. */
-  request: (f: Fixture) => Promise<{ path: string; body?: unknown; clubId?: string }>
+  /**
+   * The request, made as `role` (the director's for those outside the club); `clubId` when it
+   * acts on a club of its own rather than the fixture's.
+   */
+  request: (f: Fixture, role: Role) => Promise<{ path: string; body?: unknown; clubId?: string }>
 }
 
 const unique = () => randomBytes(5).toString('hex')
@@ -148,6 +152,21 @@ async function builtArchive(f: Fixture) {
   const { id } = await newArchive(f)
   const job = { clubId: f.club.id, archiveId: id, lastAttempt: true }
   await processClubArchive(f.db.db, pino({ level: 'silent' }), job)
+  return id
+}
+
+/**
+ * A PDF report of a new audit asked for by `role` (each reader may only poll and download their
+ * own), drawn here and now when `drawn`.
+ */
+async function reportPdf(f: Fixture, role: Role, drawn: boolean) {
+  const auditId = await newAudit(f)
+  const access = { clubId: f.club.id, userId: f.people[role].id, role }
+  const { id } = await submitReportPdf(f.db.db, f.t.context.jobs, access, auditId)
+  if (drawn) {
+    const job = { clubId: f.club.id, reportPdfId: id, lastAttempt: true }
+    await processReportPdf(f.db.db, pino({ level: 'silent' }), job)
+  }
   return id
 }
 
@@ -434,10 +453,22 @@ const matrix: Record<string, Row> = {
     ok: 200,
     request: async (f) => ({ path: `/audits/${await newAudit(f)}/headline.csv` }),
   },
-  'GET /audits/:id/report.pdf': {
+  'POST /audits/:id/report-pdfs': {
+    allow: readers,
+    ok: 202,
+    request: async (f) => ({ path: `/audits/${await newAudit(f)}/report-pdfs` }),
+  },
+  'GET /report-pdfs/:id': {
     allow: readers,
     ok: 200,
-    request: async (f) => ({ path: `/audits/${await newAudit(f)}/report.pdf` }),
+    request: async (f, role) => ({ path: `/report-pdfs/${await reportPdf(f, role, false)}` }),
+  },
+  'GET /report-pdfs/:id/download': {
+    allow: readers,
+    ok: 200,
+    request: async (f, role) => ({
+      path: `/report-pdfs/${await reportPdf(f, role, true)}/download`,
+    }),
   },
   'GET /requirement-profiles': {
     allow: readers,
@@ -605,7 +636,8 @@ describe('club API access matrix', () => {
 
   it.each(cases)('%s as %s answers %i', async (key, who, expected) => {
     const [method, path] = key.split(' ') as [string, string]
-    const { path: concrete, body, clubId = f.club.id } = await matrix[key]!.request(f)
+    const role = who === 'signed-out' || who === 'otherClub' ? 'director' : who
+    const { path: concrete, body, clubId = f.club.id } = await matrix[key]!.request(f, role)
     expect(concrete.split('/').length).toBe(path.split('/').length)
     const url = `/api/clubs/${clubId}${concrete === '/' ? '/' : concrete}`
     const agent = who === 'signed-out' ? request(t.app) : agents[who]

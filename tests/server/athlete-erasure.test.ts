@@ -7,6 +7,8 @@ import { createAthlete } from '../../server/services/athletes.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { appendHistory } from '../../server/services/progress.ts'
 import { reportPdfInput } from '../../server/services/report-pdf.ts'
+import { readPdf } from '../e2e/support-files.ts'
+import { drawnPdf } from '../support/report-pdf.ts'
 import { erasedAthleteLabel } from '../../shared/domain/erasure.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 import type { RecordDetail } from '../../shared/schemas/progress.ts'
@@ -184,7 +186,10 @@ describe('POST /api/clubs/:clubId/athletes/:athleteId/erase', () => {
     const pdf = reportPdfInput(after.report, fx.club.name)
     expect(Object.values(pdf.report.athleteNames)).toContain(erasedAthleteLabel)
     expect(JSON.stringify(pdf)).not.toContain('Quillmere')
-    await director.get(`${base}/audits/${auditId}/report.pdf`).expect(200)
+    // Drawn anew after the erasure: the PDF holds the label, never her name.
+    const { text } = readPdf(await drawnPdf(director, base, auditId))
+    expect(text).toContain(erasedAthleteLabel)
+    expect(text).not.toContain('Quillmere')
   })
 
   it('leaves the other club’s data and the other athletes untouched', async () => {

@@ -13,6 +13,7 @@ import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
+import { drawnPdf } from '../support/report-pdf.ts'
 
 // A worked example through the whole stack (events → replay as of a date → audit → stored
 // report), computed by hand with the brief's formulas:
@@ -226,16 +227,8 @@ describe('running an audit', () => {
     expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,')
     const headline = await coach.get(`${base}/audits/${q2.audit.id}/headline.csv`).expect(200)
     expect(headline.text).toContain('front-lag,0.666666')
-    const pdf = await director
-      .get(`${base}/audits/${q2.audit.id}/report.pdf`)
-      .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = []
-        res.on('data', (c: Buffer) => chunks.push(c))
-        res.on('end', () => cb(null, Buffer.concat(chunks)))
-      })
-    expect(pdf.headers['content-type']).toBe('application/pdf')
-    expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-')
+    const pdf = await drawnPdf(director, base, q2.audit.id)
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
   })
 })
 

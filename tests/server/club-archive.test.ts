@@ -64,6 +64,8 @@ const leftOut: Record<string, string> = {
   audit_runs: 'requests for audits; the audits themselves are in the archive',
   club_archives: 'the archives themselves',
   club_archive_files: 'the archives themselves',
+  report_pdfs: 'PDF reports drawn for one person for an hour; the audits are in the archive',
+  report_pdf_files: 'PDF reports drawn for one person for an hour; the audits are in the archive',
 }
 
 // A small club with known data and a second club (tests/support/archive-club.ts).

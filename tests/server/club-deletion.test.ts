@@ -6,6 +6,8 @@ import {
   clubArchives,
   elementPrerequisites,
   elementStepMaps,
+  reportPdfFiles,
+  reportPdfs,
   users,
 } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
@@ -67,7 +69,7 @@ async function populate(club: Club, agent: TestAgent) {
     .insert(elementPrerequisites)
     .values({ clubId, elementId: frontTuck, requiresElementId: backTuck, stepIndex: 0 })
   const access = { clubId, userId: club.people.director.id, role: 'director' as const }
-  await runAndStore(db, access, { squadId: null })
+  const auditId = await runAndStore(db, access, { squadId: null })
   const [archive] = await db
     .insert(clubArchives)
     .values({ clubId, expiresAt: new Date(Date.now() + 3_600_000), status: 'done' })
@@ -75,6 +77,13 @@ async function populate(club: Club, agent: TestAgent) {
   await db
     .insert(clubArchiveFiles)
     .values({ clubId, archiveId: archive!.id, bytes: Buffer.from('zip') })
+  const [pdf] = await db
+    .insert(reportPdfs)
+    .values({ clubId, auditId, requestedBy: access.userId, expiresAt: archive!.expiresAt })
+    .returning()
+  await db
+    .insert(reportPdfFiles)
+    .values({ clubId, reportPdfId: pdf!.id, bytes: Buffer.from('%PDF-') })
   await agent
     .post(`/api/clubs/${clubId}/invitations`)
     .send({ email: `invited-${clubId.slice(0, 8)}@test.example`, role: 'board' })
@@ -153,6 +162,8 @@ describe('DELETE /api/clubs/:clubId', () => {
         'progress_events',
         'progress_records',
         'progression_templates',
+        'report_pdf_files',
+        'report_pdfs',
         'requirement_profiles',
         'sessions',
         'squads',

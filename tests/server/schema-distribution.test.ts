@@ -35,6 +35,7 @@ const uniqueWithoutClubId: Record<string, string> = {}
 const idsWithoutForeignKey: Record<string, string> = {
   'audit_runs.job_id': "a job of the queue, in pg-boss's own schema",
   'club_archives.job_id': "a job of the queue, in pg-boss's own schema",
+  'report_pdfs.job_id': "a job of the queue, in pg-boss's own schema",
 }
 
 /**
