@@ -159,8 +159,9 @@ router.beforeEach(async (to) => {
   if (!membership.accessOpen) return { name: 'no-access', query: { reason: 'window' } }
   if (to.meta.roles && !to.meta.roles.includes(membership.role))
     return { name: 'no-access', query: { reason: 'role' } }
-  // The board's page of its own is its summary.
+  // The board's page of its own is its summary; a clinician's is their visit.
   if (to.name === 'home' && membership.role === 'board') return { name: 'board' }
+  if (to.name === 'home' && membership.role === 'clinician') return { name: 'visit' }
   return true
 })
 

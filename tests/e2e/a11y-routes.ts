@@ -31,7 +31,7 @@ export const signedOutVisits: Record<string, string> = {
 }
 
 export const signedInVisits: Record<string, SignedInVisit> = {
-  home: { path: '/', roles: everyone, sends: { board: '/board' } },
+  home: { path: '/', roles: everyone, sends: { board: '/board', clinician: '/visit' } },
   account: { path: '/account', roles: everyone },
   'no-access': { path: '/no-access?reason=role', roles: everyone },
   members: { path: '/members', roles: ['director'] },
@@ -50,6 +50,8 @@ export const signedInVisits: Record<string, SignedInVisit> = {
   'audit-settings': { path: '/audits/settings', roles: staff },
   audit: { path: '/audits/:auditId', roles: staff },
   board: { path: '/board', roles: ['board', 'director'] },
+  visits: { path: '/visits', roles: ['director'] },
+  visit: { path: '/visit', roles: ['clinician'] },
 }
 
 /** Routes the scan does not visit, each with the reason. */

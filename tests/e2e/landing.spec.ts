@@ -50,13 +50,16 @@ test('the coach lands on their own squads and who is due a log', async ({ page }
   await shoot(page, 'coach')
 })
 
-test('the clinician lands on their visit window and the squads they can read', async ({ page }) => {
+test('the clinician lands on their visit: its dates and the squads it covers', async ({ page }) => {
   await signIn(page, email('clinician'))
-  await expect(page.locator('[data-test="home-visit"]')).toContainText(
-    /runs from \d{4}-\d{2}-\d{2} to \d{4}-\d{2}-\d{2}/,
-  )
-  for (const squad of demoSquads)
-    await expect(page.locator('[data-test="home-squads"]')).toContainText(squad.name)
+  await expect(page).toHaveURL(/\/visit$/)
+  await expect(page.getByRole('heading', { level: 1 })).toContainText('Your visit')
+  // The demo's open visit covers the Kites alone (seed/demo-visits.ts).
+  const visit = page.locator('[data-test="clinician-visit"]').first()
+  await expect(visit).toContainText(/\d{4}-\d{2}-\d{2} – \d{4}-\d{2}-\d{2}/)
+  await expect(visit.getByRole('link', { name: 'Kites' })).toBeVisible()
+  for (const other of demoSquads.filter((s) => s.name !== 'Kites'))
+    await expect(visit.getByRole('link', { name: other.name })).toHaveCount(0)
   await shoot(page, 'clinician')
 })
 
