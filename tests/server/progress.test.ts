@@ -343,7 +343,10 @@ describe('who may see and change progress', () => {
     const squads = (await coach.get(`${base}/squads`).expect(200)).body as { id: string }[]
     expect(squads.map((s) => s.id)).toEqual([fx.squad.id])
 
-    await clinician.get(`${base}/squads/${otherSquad.id}/grid`).expect(200)
+    // A clinician reads the squads their visit covers, and only those: the visit given with
+    // their membership covers the squads there were then, not one made afterwards.
+    await clinician.get(`${base}/squads/${fx.squad.id}/grid`).expect(200)
+    await clinician.get(`${base}/squads/${otherSquad.id}/grid`).expect(403)
     const write = await log(clinician, stranger.id, {
       elementId: element.id,
       kind: 'step',
