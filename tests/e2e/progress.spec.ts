@@ -11,13 +11,13 @@ test('a coach logs a step on a tablet and sees the squad grid update', async ({ 
   await signIn(page, 'coach@demo.example')
   await page.goto('/log')
 
-  await page.getByLabel('Squad').click()
+  await page.getByLabel('Squad', { exact: true }).first().click()
   await page.locator('.n-base-select-option:visible', { hasText: 'Kites' }).first().click()
-  await page.getByLabel('Athlete').click()
+  await page.getByLabel('Athlete', { exact: true }).first().click()
   // the option list is virtual: the keyboard picks the first athlete
   await page.keyboard.press('Enter')
   await expect(page.getByText('Ada Dewhurst').first()).toBeVisible()
-  await page.getByLabel('Element').click()
+  await page.getByLabel('Element', { exact: true }).first().click()
   await page.keyboard.type('Aerial cartwheel')
   await page.keyboard.press('Enter')
 
