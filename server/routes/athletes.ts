@@ -11,6 +11,7 @@ import {
   listAthletes,
   updateAthlete,
 } from '../services/athletes.ts'
+import { removeClipObjects } from '../services/clips.ts'
 import { eraseAthlete } from '../services/erasure.ts'
 import {
   athleteRecords,
@@ -91,7 +92,13 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       path: '/athletes/:athleteId/erase',
       allow: ['director'],
       handler: async (req, res) => {
-        await eraseAthlete(ctx.db, req.club, athleteParams.parse(req.params).athleteId, req.body)
+        const objects = await eraseAthlete(
+          ctx.db,
+          req.club,
+          athleteParams.parse(req.params).athleteId,
+          req.body,
+        )
+        await removeClipObjects(ctx, objects)
         res.status(204).end()
       },
     },

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { seedDemo } from '../../seed/demo.ts'
 import type { Database } from '../../server/db/client.ts'
-import { recommendations, visits } from '../../server/db/schema-visits.ts'
+import { clips, recommendations, visits } from '../../server/db/schema-visits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 
@@ -13,7 +13,10 @@ let clubId: string
 beforeAll(async () => {
   database = await freshDatabase()
   t = await testApp(database, { worker: false })
-  const seeded = await seedDemo(database.db, { today: new Date('2025-03-10T12:00:00Z') })
+  const seeded = await seedDemo(database.db, {
+    today: new Date('2025-03-10T12:00:00Z'),
+    clips: t.context.clips,
+  })
   clubId = seeded.club.id
 }, 120_000)
 afterAll(async () => {
@@ -31,4 +34,20 @@ it('seeds one visit open around the day of seeding, covering one squad, with rec
     .where(eq(recommendations.clubId, clubId))
   expect(recs.map((r) => r.status).sort()).toEqual(['accepted', 'declined', 'open'])
   expect(recs.find((r) => r.status === 'open')!.suggestedStepIndex).toBe(1)
+})
+
+it('seeds three short WebM clips of the visited squad, stored and playable by range', async () => {
+  const rows = await database.db.select().from(clips).where(eq(clips.clubId, clubId))
+  expect(rows).toHaveLength(3)
+  for (const row of rows) {
+    expect(row.contentType).toBe('video/webm')
+    // A few kilobytes each, as recorded (seed/clips).
+    expect(row.sizeBytes).toBeGreaterThan(1000)
+    expect(row.sizeBytes).toBeLessThan(20_000)
+    const head = t.context.clips!.get(row.objectKey, 0, 3)
+    const bytes: Buffer[] = []
+    for await (const chunk of await head) bytes.push(chunk as Buffer)
+    // The EBML magic (RFC 8794 §8.1): the stored object is the WebM itself.
+    expect([...Buffer.concat(bytes)]).toEqual([0x1a, 0x45, 0xdf, 0xa3])
+  }
 })
