@@ -5,6 +5,7 @@ import {
   confirmationMatches,
   replaceAthleteId,
 } from '../../shared/domain/erasure.ts'
+import { replaceOutcomeAthleteId } from '../../shared/domain/visit-outcomes.ts'
 import { athleteErasureSchema, clubDeletionSchema } from '../../shared/schemas/erasure.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx, Tx } from '../db/client.ts'
@@ -94,15 +95,23 @@ export async function eraseAthlete(
 async function unlinkFromAudits(tx: Tx, clubId: string, athleteId: string) {
   // The text search only narrows the rows to read; replaceAthleteId decides.
   const rows = await tx
-    .select({ id: audits.id, result: audits.result })
+    .select({ id: audits.id, result: audits.result, visitOutcomes: audits.visitOutcomes })
     .from(audits)
-    .where(and(eq(audits.clubId, clubId), sql`strpos(${audits.result}::text, ${athleteId}) > 0`))
+    .where(
+      and(
+        eq(audits.clubId, clubId),
+        sql`(strpos(${audits.result}::text, ${athleteId}) > 0 or strpos(coalesce(${audits.visitOutcomes}::text, ''), ${athleteId}) > 0)`,
+      ),
+    )
   for (const row of rows) {
-    const result = replaceAthleteId(row.result, athleteId, randomUUID())
-    if (!result) continue
+    const replacement = randomUUID()
+    const result = replaceAthleteId(row.result, athleteId, replacement)
+    const visitOutcomes =
+      row.visitOutcomes && replaceOutcomeAthleteId(row.visitOutcomes, athleteId, replacement)
+    if (!result && !visitOutcomes) continue
     await tx
       .update(audits)
-      .set({ result })
+      .set({ ...(result ? { result } : {}), ...(visitOutcomes ? { visitOutcomes } : {}) })
       .where(and(eq(audits.clubId, clubId), eq(audits.id, row.id)))
   }
 }

@@ -1,3 +1,4 @@
+import type { OutcomeSummary, VisitOutcomes } from '../domain/visit-outcomes.ts'
 import { z } from 'zod'
 import { ageCategories } from '../domain/age-categories.ts'
 import type { AuditComparison, AuditResult } from '../domain/audit.ts'
@@ -59,6 +60,8 @@ export interface AuditReport {
   squadNames: Record<string, string>
   /** True when the rows were limited to the coach's squads. */
   limitedToSquads: boolean
+  /** What the scope's visits changed, with the elements' and steps' names; null without one. */
+  visitOutcomes: (VisitOutcomes & { elementNames: Record<string, string> }) | null
 }
 
 const requirementSchema = z.object({
@@ -116,5 +119,7 @@ export interface BoardSummary {
     athletesWithGaps: number
     readinessAlerts: number
     squads: { name: string; frontLag: number; athleteCount: number }[]
+    /** The counts of the visits' outcomes only, never the athletes. */
+    visitOutcomes: OutcomeSummary | null
   } | null
 }

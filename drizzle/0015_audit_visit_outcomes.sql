@@ -1,0 +1,1 @@
+ALTER TABLE "audits" ADD COLUMN "visit_outcomes" json;
