@@ -17,6 +17,7 @@ import type { ClipStore } from '../server/storage/clip-store.ts'
 import { demoClubElements } from './demo-elements.ts'
 import { demoHistory } from './demo-progress.ts'
 import { demoClips } from './demo-clips.ts'
+import { demoPastVisit } from './demo-past-visit.ts'
 import { demoVisit } from './demo-visits.ts'
 import { familyNames, givenNames } from './names.ts'
 
@@ -159,6 +160,13 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       squadId: squadIds.get('Kites')!,
       clinicianId: userIds.get('clinician@demo.example')!,
       directorId: director,
+      coachId: userIds.get('coach@demo.example')!,
+    })
+    await demoPastVisit(tx, {
+      clubId: club.id,
+      today,
+      squadId: squadIds.get('Falcons')!,
+      clinicianId: userIds.get('clinician@demo.example')!,
       coachId: userIds.get('coach@demo.example')!,
     })
     if (options.clips)

@@ -1,7 +1,8 @@
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { seedDemo } from '../../seed/demo.ts'
 import type { Database } from '../../server/db/client.ts'
+import { audits } from '../../server/db/schema.ts'
 import { clips, recommendations, visits } from '../../server/db/schema-visits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -25,13 +26,16 @@ afterAll(async () => {
 })
 
 it('seeds one visit open around the day of seeding, covering one squad, with recommendations in three states', async () => {
-  const [visit] = await database.db.select().from(visits).where(eq(visits.clubId, clubId))
+  const [visit] = await database.db
+    .select()
+    .from(visits)
+    .where(and(eq(visits.clubId, clubId), eq(visits.lastDay, '2025-03-31')))
   // Seeded as of 10 March 2025: a week before is 3 March, three weeks after is 31 March.
   expect(visit).toMatchObject({ firstDay: '2025-03-03', lastDay: '2025-03-31' })
   const recs = await database.db
     .select()
     .from(recommendations)
-    .where(eq(recommendations.clubId, clubId))
+    .where(and(eq(recommendations.clubId, clubId), eq(recommendations.visitId, visit!.id)))
   expect(recs.map((r) => r.status).sort()).toEqual(['accepted', 'declined', 'open'])
   expect(recs.find((r) => r.status === 'open')!.suggestedStepIndex).toBe(1)
 })
@@ -50,4 +54,31 @@ it('seeds three short WebM clips of the visited squad, stored and playable by ra
     // The EBML magic (RFC 8794 §8.1): the stored object is the WebM itself.
     expect([...Buffer.concat(bytes)]).toEqual([0x1a, 0x45, 0xdf, 0xa3])
   }
+})
+
+it('seeds a past visit with a recommendation in each state, whose outcomes the next audit reports', async () => {
+  // Seeded as of 10 March 2025 (2025-Q1): the quarter before last is 2024-Q3, ending
+  // 30 September 2024; the visit ended ten days before, on 20 September, from 16 September.
+  const [past] = await database.db
+    .select()
+    .from(visits)
+    .where(and(eq(visits.clubId, clubId), eq(visits.lastDay, '2024-09-20')))
+  expect(past).toMatchObject({ firstDay: '2024-09-16' })
+  const recs = await database.db
+    .select()
+    .from(recommendations)
+    .where(eq(recommendations.visitId, past!.id))
+  expect(recs.map((r) => r.status).sort()).toEqual(['accepted', 'declined', 'done', 'open'])
+  const byDate = await database.db
+    .select({ asOf: audits.asOf, visitOutcomes: audits.visitOutcomes })
+    .from(audits)
+    .where(eq(audits.clubId, clubId))
+  const next = byDate.find((a) => a.asOf === '2024-09-30')!
+  expect(next.visitOutcomes!.recommendations).toHaveLength(4)
+  // The accepted and the done one were placed on records the history moves before the audit.
+  expect(next.visitOutcomes!.summary).toMatchObject({ accepted: 2, acceptedMoved: 2 })
+  expect(next.visitOutcomes!.summary.comparable).toBeGreaterThan(0)
+  // The audit after it no longer reports that visit; the one before did not yet.
+  expect(byDate.find((a) => a.asOf === '2024-12-31')!.visitOutcomes).toBeNull()
+  expect(byDate.find((a) => a.asOf === '2024-06-30')!.visitOutcomes).toBeNull()
 })
