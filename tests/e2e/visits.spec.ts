@@ -84,7 +84,12 @@ test('the clinician watches a clip and recommends; the coach accepts and logs a 
     'data-test',
     'recommendation-accepted',
   )
-  await expect(page.locator('[data-test="log-clips"] [data-test="clip"]')).toHaveCount(1)
+  // The coach attaches another clip of the record (the file input a tablet's camera roll fills).
+  const logClips = page.locator('[data-test="log-clips"] [data-test="clip"]')
+  await expect(logClips).toHaveCount(1)
+  await page.locator('[data-test="clip-file"]').setInputFiles('seed/clips/attempt-2.webm')
+  await expect(page.getByText('attempt-2.webm uploaded.')).toBeVisible()
+  await expect(logClips).toHaveCount(2)
   await page.getByRole('button', { name: /save/i }).first().click()
   await expect(page.getByText(/^Saved\./)).toBeVisible()
   await screenshot(page, 'coach-log-recommendation')
