@@ -11,6 +11,30 @@ import {
 const isoDate = (d: Date) => d.toISOString().slice(0, 10)
 const addDays = (d: Date, days: number) => new Date(d.getTime() + days * 86_400_000)
 
+/** The squad's athletes by name: the demo's visits and clips are about the first ones. */
+export const athletesOfSquad = (tx: DbOrTx, clubId: string, squadId: string) =>
+  tx
+    .select({ id: athletes.id })
+    .from(athletes)
+    .where(and(eq(athletes.clubId, clubId), eq(athletes.squadId, squadId)))
+    .orderBy(asc(athletes.familyName), asc(athletes.givenName))
+
+/** The simplest forward element on floor: what the demo visit is about. */
+export async function forwardFloorElement(tx: DbOrTx, clubId: string) {
+  const [element] = await tx
+    .select({ id: elements.id, stepsVersion: elements.stepsVersion })
+    .from(elements)
+    .where(
+      and(
+        eq(elements.clubId, clubId),
+        eq(elements.apparatus, 'floor'),
+        eq(elements.direction, 'forward'),
+      ),
+    )
+    .orderBy(asc(elements.quarterRotations), asc(elements.name))
+  return element
+}
+
 /**
  * One visit open around the day of seeding (a week before to three weeks after) covering one
  * squad, with three recommendations: open on an athlete's element, accepted on an athlete, and
@@ -41,22 +65,8 @@ export async function demoVisit(
     })
     .returning({ id: visits.id })
   await tx.insert(visitSquads).values({ clubId, visitId: visit!.id, squadId: input.squadId })
-  const squadAthletes = await tx
-    .select({ id: athletes.id })
-    .from(athletes)
-    .where(and(eq(athletes.clubId, clubId), eq(athletes.squadId, input.squadId)))
-    .orderBy(asc(athletes.familyName), asc(athletes.givenName))
-  const [frontTuck] = await tx
-    .select({ id: elements.id, stepsVersion: elements.stepsVersion })
-    .from(elements)
-    .where(
-      and(
-        eq(elements.clubId, clubId),
-        eq(elements.apparatus, 'floor'),
-        eq(elements.direction, 'forward'),
-      ),
-    )
-    .orderBy(asc(elements.quarterRotations), asc(elements.name))
+  const squadAthletes = await athletesOfSquad(tx, clubId, input.squadId)
+  const frontTuck = await forwardFloorElement(tx, clubId)
   const made = addDays(today, -5)
   const rows = [
     {

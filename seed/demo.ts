@@ -13,8 +13,11 @@ import { appendHistory } from '../server/services/progress.ts'
 import { countClubs, createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { assignCoach, createSquad } from '../server/services/squads.ts'
+import type { ClipStore } from '../server/storage/clip-store.ts'
 import { demoClubElements } from './demo-elements.ts'
 import { demoHistory } from './demo-progress.ts'
+import { demoClips } from './demo-clips.ts'
+import { demoPastVisit } from './demo-past-visit.ts'
 import { demoVisit } from './demo-visits.ts'
 import { familyNames, givenNames } from './names.ts'
 
@@ -82,6 +85,8 @@ export const demoPeople: DemoPerson[] = [
 export interface SeedOptions {
   /** The day the demo is seeded as of; ages and the clinician window follow it. */
   today?: Date
+  /** Where the demo clips go; without it the demo has no clips. */
+  clips?: ClipStore | null
 }
 
 const isoDate = (d: Date) => d.toISOString().slice(0, 10)
@@ -157,6 +162,20 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       directorId: director,
       coachId: userIds.get('coach@demo.example')!,
     })
+    await demoPastVisit(tx, {
+      clubId: club.id,
+      today,
+      squadId: squadIds.get('Falcons')!,
+      clinicianId: userIds.get('clinician@demo.example')!,
+      coachId: userIds.get('coach@demo.example')!,
+    })
+    if (options.clips)
+      await demoClips(tx, options.clips, {
+        clubId: club.id,
+        squadId: squadIds.get('Kites')!,
+        coachId: userIds.get('coach@demo.example')!,
+        today,
+      })
     const audits = await demoAudits(
       tx,
       { clubId: club.id, userId: director, role: 'director' },

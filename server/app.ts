@@ -28,6 +28,7 @@ import { clubRoutesRouter, type ClubRoute } from './routes/club-routes.ts'
 import { healthCheck } from './routes/health.ts'
 import { allClubRoutes } from './routes/index.ts'
 import { signupRouter } from './routes/signup.ts'
+import { createClipStore } from './storage/clip-store.ts'
 
 export interface AppOptions {
   env: Env
@@ -57,6 +58,7 @@ export function createApp({ env, database, logger, mailer, limits, clientDir }: 
     ),
     logger,
     jobs: createJobQueue(database.db, jobSettingsOf(env)),
+    clips: createClipStore(env),
   }
   const clubRoutes: ClubRoute[] = allClubRoutes(ctx)
 

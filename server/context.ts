@@ -5,6 +5,7 @@ import type { Db } from './db/client.ts'
 import { linkOrigin, type Env } from './env.ts'
 import type { JobQueue } from './jobs/queue.ts'
 import type { Mailer } from './mail/mailer.ts'
+import type { ClipStore } from './storage/clip-store.ts'
 
 /** What routes and services share: built once in createApp. */
 export interface AppContext {
@@ -16,6 +17,8 @@ export interface AppContext {
   logger: Logger
   /** Background work: audits, club archives and mail, done by workers. */
   jobs: JobQueue
+  /** Where clip videos are stored; null when clips are turned off or have no bucket. */
+  clips: ClipStore | null
 }
 
 /**

@@ -41,6 +41,20 @@ export const envSchema = z.object({
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
   /** How many days before a recommendation's due date its reminder goes to the coaches. */
   RECOMMENDATION_REMINDER_DAYS: z.coerce.number().int().min(1).max(60).default(3),
+  /** Video clips of attempts: off, the clip routes answer 503 and nothing is stored. */
+  CLIPS_ENABLED: booleanFlag.default(true),
+  /** The S3 bucket clips are stored in (required in production while clips are enabled). */
+  S3_BUCKET: z.string().min(3).max(63).optional(),
+  /** An S3-compatible endpoint other than AWS's own, e.g. https://s3.example.org. */
+  S3_ENDPOINT: z.url({ protocol: /^https?$/ }).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  /** Without these the SDK's own chain is used (instance role, ~/.aws, AWS_* variables). */
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Path-style addresses (endpoint/bucket/key), which most S3-compatible stores want. */
+  S3_FORCE_PATH_STYLE: booleanFlag.default(false),
+  /** The largest clip accepted, in megabytes (10^6 bytes). */
+  CLIP_MAX_MB: z.coerce.number().int().min(1).max(5000).default(200),
   /**
    * Behind a TLS-terminating proxy: which hops' X-Forwarded-* to believe. `true` is one proxy in
    * front (the client address is the last one that proxy added, never one the client wrote); a
@@ -67,7 +81,7 @@ export const envSchema = z.object({
 /**
  * Production refuses to start without the settings that keep links and mail honest: links in
  * mail point at PUBLIC_URL (never at a request's Host header), and mail goes to a real provider
- * (the local fake and its viewer are for development only).
+ * (the local fake and its viewer are for development only), and clips go to a real bucket.
  */
 const productionSchema = envSchema.superRefine((env, ctx) => {
   if (env.NODE_ENV !== 'production') return
@@ -75,6 +89,12 @@ const productionSchema = envSchema.superRefine((env, ctx) => {
     if (!env[name])
       ctx.addIssue({ code: 'custom', path: [name], message: 'required in production' })
   }
+  if (env.CLIPS_ENABLED && !env.S3_BUCKET)
+    ctx.addIssue({
+      code: 'custom',
+      path: ['S3_BUCKET'],
+      message: 'required in production while CLIPS_ENABLED is on',
+    })
 })
 
 export type Env = z.infer<typeof envSchema>

@@ -2,6 +2,7 @@ import { createDatabase } from '../db/client.ts'
 import { applyMigrations } from '../db/migrate.ts'
 import type { Env } from '../env.ts'
 import { seedDemoIfEmpty } from '../../seed/demo.ts'
+import type { ClipStore } from '../storage/clip-store.ts'
 import type { LocalDatabase } from './local-database.ts'
 
 export { projectDir } from '../paths.ts'
@@ -11,13 +12,16 @@ export { localDatabase, type LocalDatabase } from './local-database.ts'
  * Applies migrations (with the data they added a place for) and, unless `seed` is false, loads
  * the demo club into an empty database. Safe to run every start.
  */
-export async function prepareDatabase(url: string, options: { seed?: boolean; today?: Date } = {}) {
+export async function prepareDatabase(
+  url: string,
+  options: { seed?: boolean; today?: Date; clips?: ClipStore | null } = {},
+) {
   const database = createDatabase(url)
   try {
     await applyMigrations(database.db)
     return options.seed === false
       ? null
-      : await seedDemoIfEmpty(database.db, { today: options.today })
+      : await seedDemoIfEmpty(database.db, { today: options.today, clips: options.clips })
   } finally {
     await database.close()
   }
@@ -36,7 +40,7 @@ export type DemoPreparation =
 export async function prepareLocalDatabase(
   local: LocalDatabase,
   env: Pick<Env, 'TWOFOLD_DEMO_SEED'>,
-  options: { today?: Date } = {},
+  options: { today?: Date; clips?: ClipStore | null } = {},
 ): Promise<DemoPreparation> {
   if (local.external && !env.TWOFOLD_DEMO_SEED) {
     await prepareDatabase(local.url, { seed: false })

@@ -3,19 +3,27 @@ import { join } from 'node:path'
 import { EnvError, parseEnv } from '../env.ts'
 import { serve, stopOnSignals } from '../index.ts'
 import { localDatabase, prepareLocalDatabase, projectDir } from './bootstrap.ts'
+import { createClipStore } from '../storage/clip-store.ts'
 import { checkClientBuild } from './client-build.ts'
+import { localClipStorage, type FakeS3 } from './fake-s3.ts'
 import { printDemoSignIns } from './demo-sign-ins.ts'
 import { PostgresSetupError, stopCluster, type Cluster } from './postgres.ts'
 
 // `npm start`: everything from a fresh clone to a served product, one step at a time.
 let startedCluster: Cluster | undefined
+let fakeS3: FakeS3 | undefined
 try {
-  const env = parseEnv()
+  // Clips go to the settings' bucket, else to a local S3 fake keeping them in .data/s3.
+  const storage = await localClipStorage(parseEnv(), join(projectDir, '.data', 's3'))
+  fakeS3 = storage.fake
+  const env = storage.env
   console.log('1/4 Database…')
   const local = await localDatabase(env.DATABASE_URL)
   startedCluster = local.cluster
   console.log('2/4 Migrations and demo club…')
-  const { seeded, refused } = await prepareLocalDatabase(local, env)
+  const { seeded, refused } = await prepareLocalDatabase(local, env, {
+    clips: createClipStore(env),
+  })
   console.log(
     seeded
       ? `    loaded the demo club "${seeded.club.name}" (${seeded.squads} squads, ${seeded.athletes} athletes, ${seeded.audits} published quarterly audits)`
@@ -47,6 +55,7 @@ try {
         NODE_ENV: 'development',
         DATABASE_URL: local.url,
         ...(serving.fakeSmtpUrl ? { SMTP_URL: serving.fakeSmtpUrl } : {}),
+        ...(fakeS3?.vars ?? {}),
       },
     },
   )
@@ -63,6 +72,7 @@ try {
       worker.kill('SIGTERM')
       await new Promise((resolve) => worker.once('exit', resolve))
     }
+    await fakeS3?.close()
     if (local.cluster) {
       console.log('Stopping PostgreSQL…')
       stopCluster(local.cluster)
@@ -72,5 +82,6 @@ try {
   if (err instanceof EnvError || err instanceof PostgresSetupError) console.error(err.message)
   else console.error(err)
   if (startedCluster) stopCluster(startedCluster)
+  await fakeS3?.close()
   process.exit(1)
 }

@@ -1,4 +1,5 @@
 import {
+  bigint,
   date,
   foreignKey,
   index,
@@ -78,9 +79,62 @@ export const visitSquads = pgTable(
 )
 
 /**
+ * A short video of an athlete's attempt at an element, uploaded by a coach. The bytes live in
+ * the clip store under `objectKey`; the row says whose attempt it is and how to serve it.
+ */
+export const clips = pgTable(
+  'clips',
+  {
+    clubId: uuid().notNull(),
+    id: uuid().notNull().defaultRandom(),
+    athleteId: uuid().notNull(),
+    elementId: uuid().notNull(),
+    objectKey: text().notNull(),
+    contentType: text().notNull(),
+    sizeBytes: bigint({ mode: 'number' }).notNull(),
+    fileName: text().notNull().default(''),
+    note: text().notNull().default(''),
+    uploadedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.id] }),
+    foreignKey({
+      columns: [t.clubId, t.athleteId],
+      foreignColumns: [athletes.clubId, athletes.id],
+    }),
+    foreignKey({
+      columns: [t.clubId, t.elementId],
+      foreignColumns: [elements.clubId, elements.id],
+    }),
+    index('clips_athlete_idx').on(t.clubId, t.athleteId, t.elementId),
+  ],
+)
+
+/** A clinician marked the clip reviewed: it leaves their list of clips waiting. */
+export const clipReviews = pgTable(
+  'clip_reviews',
+  {
+    clubId: uuid().notNull(),
+    clipId: uuid().notNull(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    reviewedAt: createdAt(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.clubId, t.clipId, t.userId] }),
+    foreignKey({
+      columns: [t.clubId, t.clipId],
+      foreignColumns: [clips.clubId, clips.id],
+    }).onDelete('cascade'),
+  ],
+)
+
+/**
  * A clinician's recommendation on a squad, an athlete of it, or an athlete's element with the
- * step to aim for (its index in the element's steps version `stepsVersion`). `clipId` is kept
- * for a clip the recommendation may later refer to.
+ * step to aim for (its index in the element's steps version `stepsVersion`), possibly about one
+ * of the athlete's clips.
  */
 export const recommendations = pgTable(
   'recommendations',
@@ -93,6 +147,7 @@ export const recommendations = pgTable(
     elementId: uuid(),
     suggestedStepIndex: integer(),
     stepsVersion: integer(),
+    clipId: uuid(),
     text: text().notNull(),
     priority: recommendationPriorityEnum().notNull().default('normal'),
     dueOn: date().notNull(),
@@ -120,6 +175,10 @@ export const recommendations = pgTable(
       columns: [t.clubId, t.elementId],
       foreignColumns: [elements.clubId, elements.id],
     }).onDelete('cascade'),
+    foreignKey({
+      columns: [t.clubId, t.clipId],
+      foreignColumns: [clips.clubId, clips.id],
+    }),
     index('recommendations_squad_idx').on(t.clubId, t.squadId),
     index('recommendations_athlete_idx').on(t.clubId, t.athleteId),
     index('recommendations_visit_idx').on(t.clubId, t.visitId),

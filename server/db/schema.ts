@@ -1,3 +1,4 @@
+import type { VisitOutcomes } from '../../shared/domain/visit-outcomes.ts'
 import { sql } from 'drizzle-orm'
 import {
   bigint,
@@ -500,6 +501,11 @@ export const audits = pgTable(
     result: json().$type<StoredAuditResult | AuditResult>().notNull(),
     /** The headline and the squad breakdown: what lists, trends and the board read. */
     figures: jsonb().$type<AuditFigures>().notNull(),
+    /**
+     * What the visits of the scope changed (shared/domain/visit-outcomes.ts), computed with the
+     * audit and kept with it so that the report reads the same later; null without a visit.
+     */
+    visitOutcomes: json().$type<VisitOutcomes>(),
     createdBy: text().references(() => users.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
     publishedAt: timestamp({ withTimezone: true, mode: 'date' }),

@@ -12,6 +12,7 @@ import {
   listAthletes,
   updateAthlete,
 } from '../services/athletes.ts'
+import { removeClipObjects } from '../services/clips.ts'
 import { eraseAthlete } from '../services/erasure.ts'
 import { progressDue } from '../services/progress-due.ts'
 import {
@@ -93,7 +94,13 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       path: '/athletes/:athleteId/erase',
       allow: ['director'],
       handler: async (req, res) => {
-        await eraseAthlete(ctx.db, req.club, athleteParams.parse(req.params).athleteId, req.body)
+        const objects = await eraseAthlete(
+          ctx.db,
+          req.club,
+          athleteParams.parse(req.params).athleteId,
+          req.body,
+        )
+        await removeClipObjects(ctx, objects)
         res.status(204).end()
       },
     },

@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import { clubSettingsSchema } from '../../shared/schemas/clubs.ts'
 import type { AppContext } from '../context.ts'
 import { clubs } from '../db/schema.ts'
+import { removeClipObjects } from '../services/clips.ts'
 import { deleteClub } from '../services/erasure.ts'
 import { everyRole, type ClubRoute } from './club-routes.ts'
 
@@ -41,7 +42,7 @@ export function clubRoutes(ctx: AppContext): ClubRoute[] {
       path: '/',
       allow: ['director'],
       handler: async (req, res) => {
-        await deleteClub(ctx.db, req.club, req.body)
+        await removeClipObjects(ctx, await deleteClub(ctx.db, req.club, req.body))
         res.status(204).end()
       },
     },

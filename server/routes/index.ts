@@ -3,6 +3,7 @@ import { archiveRoutes } from './archives.ts'
 import { athleteRoutes } from './athletes.ts'
 import { auditRoutes } from './audits.ts'
 import { catalogueRoutes } from './catalogue.ts'
+import { clipRoutes } from './clips.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
@@ -22,5 +23,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...reportPdfRoutes(ctx),
     ...archiveRoutes(ctx),
     ...visitRoutes(ctx),
+    ...clipRoutes(ctx),
   ]
 }

@@ -1,9 +1,19 @@
 import { and, asc, eq } from 'drizzle-orm'
 import type { DbOrTx } from '../db/client.ts'
-import { recommendationEvents, recommendations, visitSquads, visits } from '../db/schema-visits.ts'
+import {
+  clipReviews,
+  clips,
+  recommendationEvents,
+  recommendations,
+  visitSquads,
+  visits,
+} from '../db/schema-visits.ts'
 import { csvFile, iso, type ArchiveFile } from './archive-files.ts'
 
-/** The club's visits, the squads they covered, the recommendations and their history. */
+/**
+ * The club's visits, the squads they covered, the recommendations and their history, and the
+ * list of clips (the videos themselves stay in the clip store: the archive is a data export).
+ */
 export function visitArchiveFiles(db: DbOrTx, clubId: string): ArchiveFile[] {
   return [
     csvFile(
@@ -37,6 +47,7 @@ export function visitArchiveFiles(db: DbOrTx, clubId: string): ArchiveFile[] {
         'elementId',
         'suggestedStepIndex',
         'stepsVersion',
+        'clipId',
         'text',
         'priority',
         'dueOn',
@@ -66,6 +77,38 @@ export function visitArchiveFiles(db: DbOrTx, clubId: string): ArchiveFile[] {
             .where(and(eq(recommendationEvents.clubId, clubId)))
             .orderBy(asc(recommendationEvents.at), asc(recommendationEvents.id))
         ).map((e) => ({ ...e, at: iso(e.at) })),
+    ),
+    csvFile(
+      'clips.csv',
+      'athletes',
+      [
+        'id',
+        'athleteId',
+        'elementId',
+        'contentType',
+        'sizeBytes',
+        'fileName',
+        'note',
+        'uploadedBy',
+        'createdAt',
+      ],
+      async () =>
+        (
+          await db
+            .select()
+            .from(clips)
+            .where(eq(clips.clubId, clubId))
+            .orderBy(asc(clips.createdAt), asc(clips.id))
+        ).map((c) => ({ ...c, createdAt: iso(c.createdAt) })),
+    ),
+    csvFile('clip-reviews.csv', 'athletes', ['clipId', 'userId', 'reviewedAt'], async () =>
+      (
+        await db
+          .select()
+          .from(clipReviews)
+          .where(eq(clipReviews.clubId, clubId))
+          .orderBy(asc(clipReviews.clipId), asc(clipReviews.userId))
+      ).map((r) => ({ ...r, reviewedAt: iso(r.reviewedAt) })),
     ),
   ]
 }

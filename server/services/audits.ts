@@ -40,6 +40,7 @@ import {
 import { AppError, notFound } from '../http/errors.ts'
 import { clubAgeThresholds, clubProfiles, gatherInputs } from './audit-inputs.ts'
 import { assertCanReadSquad, readableSquadIds } from './scope.ts'
+import { gatherVisitOutcomes, outcomesForReport } from './visit-outcomes.ts'
 
 /** Gives a new club the seeded requirement profiles and age thresholds. */
 export async function installAuditDefaults(db: DbOrTx, clubId: string) {
@@ -179,6 +180,7 @@ export async function computeAudit(
   const result = runAudit(inputs, {}, (p: AuditProgress) => onProgress(p))
   onProgress({ phase: 'hashing', done: 0, total: 1 })
   const inputHash = await auditInputHash(inputs)
+  const visitOutcomes = await gatherVisitOutcomes(db, access.clubId, run.squadId, asOf)
   return {
     clubId: access.clubId,
     squadId: run.squadId,
@@ -186,6 +188,7 @@ export async function computeAudit(
     inputHash,
     result: packAuditResult(result),
     figures: auditFigures(result),
+    visitOutcomes,
     createdBy: access.userId,
   }
 }
@@ -323,10 +326,12 @@ export async function reportWithin(
     gaps: full.gaps.filter((g) => keep(g.squadId)),
     readiness: full.readiness.filter((r) => keep(r.squadId)),
   }
+  const visitOutcomes = await outcomesForReport(db, access.clubId, row.visitOutcomes, keep)
   const ids = [
     ...new Set([
       ...result.athletes.map((a) => a.athleteId),
       ...result.readiness.map((r) => r.athleteId),
+      ...(visitOutcomes?.recommendations.map((r) => r.athleteId) ?? []),
     ]),
   ]
   const people =
@@ -354,6 +359,7 @@ export async function reportWithin(
     athleteNames: namesOrErased(ids, people),
     squadNames: names,
     limitedToSquads: readable !== 'all',
+    visitOutcomes,
   }
 }
 
@@ -445,6 +451,7 @@ export async function boardSummary(db: DbOrTx, clubId: string): Promise<BoardSum
               )
               .sort((a, b) => a.name.localeCompare(b.name)),
             squadsWithoutRecords: latest.squads.filter((s) => s.frontLag === null).length,
+            visitOutcomes: last.visitOutcomes?.summary ?? null,
           }
         : null,
   }

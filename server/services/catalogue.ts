@@ -36,6 +36,7 @@ import {
   progressEvents,
   progressionTemplates,
 } from '../db/schema.ts'
+import { clips } from '../db/schema-visits.ts'
 import { toCsv } from '../http/csv.ts'
 import { AppError, conflict, notFound } from '../http/errors.ts'
 import { recomputeElementRecords } from './progress.ts'
@@ -305,6 +306,17 @@ export async function deleteElement(db: DbOrTx, access: ClubAccess, id: string) 
         `“${current.name}” cannot be deleted: ${athletes} athlete${athletes === 1 ? ' has' : 's have'} records on it.`,
       )
     }
+    const [clip] = await tx
+      .select({ id: clips.id })
+      .from(clips)
+      .where(and(eq(clips.clubId, access.clubId), eq(clips.elementId, id)))
+      .limit(1)
+    if (clip)
+      throw new AppError(
+        409,
+        'has_clips',
+        `“${current.name}” cannot be deleted: clips of attempts at it are kept.`,
+      )
     await tx.delete(elements).where(and(eq(elements.clubId, access.clubId), eq(elements.id, id)))
   })
 }

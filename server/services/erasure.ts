@@ -5,6 +5,7 @@ import {
   confirmationMatches,
   replaceAthleteId,
 } from '../../shared/domain/erasure.ts'
+import { replaceOutcomeAthleteId } from '../../shared/domain/visit-outcomes.ts'
 import { athleteErasureSchema, clubDeletionSchema } from '../../shared/schemas/erasure.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx, Tx } from '../db/client.ts'
@@ -33,17 +34,25 @@ import {
   sessions,
   squads,
 } from '../db/schema.ts'
-import { recommendationEvents, recommendations, visitSquads, visits } from '../db/schema-visits.ts'
+import {
+  clipReviews,
+  clips,
+  recommendationEvents,
+  recommendations,
+  visitSquads,
+  visits,
+} from '../db/schema-visits.ts'
 import { AppError, notFound } from '../http/errors.ts'
 
 const mismatch = (message: string) =>
   new AppError(400, 'confirmation_mismatch', message, [{ path: 'confirmName', message }])
 
 /**
- * Erases an athlete for good, in one transaction: their progress history and records, then the
- * athlete. Stored audits keep their figures; where they listed the athlete, the athlete's id is
- * replaced by a new one that nothing else holds, and reports show no name for it; PDF reports
- * already drawn are deleted.
+ * Erases an athlete for good, in one transaction: their clips, progress history and records,
+ * then the athlete. Answers the keys of the clip objects, which the caller deletes from the
+ * store once this has committed. Stored audits keep their figures; where they listed the
+ * athlete, the athlete's id is replaced by a new one that nothing else holds, and reports show
+ * no name for it; PDF reports already drawn are deleted.
  */
 export async function eraseAthlete(
   db: DbOrTx,
@@ -52,7 +61,7 @@ export async function eraseAthlete(
   body: unknown,
 ) {
   const { confirmName } = athleteErasureSchema.parse(body)
-  await db.transaction(async (tx) => {
+  return db.transaction(async (tx) => {
     const [athlete] = await tx
       .select()
       .from(athletes)
@@ -69,6 +78,11 @@ export async function eraseAthlete(
       .where(
         and(eq(recommendations.clubId, access.clubId), eq(recommendations.athleteId, athleteId)),
       )
+    // Their clips (recommendations on a clip name its athlete, so they are gone already).
+    const erased = await tx
+      .delete(clips)
+      .where(and(eq(clips.clubId, access.clubId), eq(clips.athleteId, athleteId)))
+      .returning({ key: clips.objectKey })
     // Records name their newest event: they go first, then the events, then the athlete.
     await tx.delete(progressRecords).where(ofAthlete(progressRecords))
     await tx.delete(progressEvents).where(ofAthlete(progressEvents))
@@ -79,6 +93,7 @@ export async function eraseAthlete(
     // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
     await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
     await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
+    return erased.map((c) => c.key)
   })
 }
 
@@ -86,15 +101,23 @@ export async function eraseAthlete(
 async function unlinkFromAudits(tx: Tx, clubId: string, athleteId: string) {
   // The text search only narrows the rows to read; replaceAthleteId decides.
   const rows = await tx
-    .select({ id: audits.id, result: audits.result })
+    .select({ id: audits.id, result: audits.result, visitOutcomes: audits.visitOutcomes })
     .from(audits)
-    .where(and(eq(audits.clubId, clubId), sql`strpos(${audits.result}::text, ${athleteId}) > 0`))
+    .where(
+      and(
+        eq(audits.clubId, clubId),
+        sql`(strpos(${audits.result}::text, ${athleteId}) > 0 or strpos(coalesce(${audits.visitOutcomes}::text, ''), ${athleteId}) > 0)`,
+      ),
+    )
   for (const row of rows) {
-    const result = replaceAthleteId(row.result, athleteId, randomUUID())
-    if (!result) continue
+    const replacement = randomUUID()
+    const result = replaceAthleteId(row.result, athleteId, replacement)
+    const visitOutcomes =
+      row.visitOutcomes && replaceOutcomeAthleteId(row.visitOutcomes, athleteId, replacement)
+    if (!result && !visitOutcomes) continue
     await tx
       .update(audits)
-      .set({ result })
+      .set({ ...(result ? { result } : {}), ...(visitOutcomes ? { visitOutcomes } : {}) })
       .where(and(eq(audits.clubId, clubId), eq(audits.id, row.id)))
   }
 }
@@ -103,19 +126,26 @@ async function unlinkFromAudits(tx: Tx, clubId: string, athleteId: string) {
  * Deletes a club and everything it holds, in one transaction, once its name is typed exactly.
  * Table by table within the club, children first, so that no step depends on a cascade; the
  * people keep their accounts (and their other clubs), and their sessions forget the club.
+ * Answers the keys of the club's clip objects, for the caller to delete once this committed.
  */
 export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) {
   const { confirmName } = clubDeletionSchema.parse(body)
   const clubId = access.clubId
-  await db.transaction(async (tx) => {
+  return db.transaction(async (tx) => {
     // Locking the club row waits for writes in flight that point at it, and holds off new ones.
     const [club] = await tx.select().from(clubs).where(eq(clubs.id, clubId)).for('update')
     if (!club) throw notFound('No such club.')
     if (!confirmationMatches(confirmName, club.name))
       throw mismatch(`Type “${club.name}” exactly to delete the club.`)
+    const objects = await tx
+      .select({ key: clips.objectKey })
+      .from(clips)
+      .where(eq(clips.clubId, clubId))
     for (const table of [
       recommendationEvents,
       recommendations,
+      clipReviews,
+      clips,
       visitSquads,
       visits,
       clubArchiveFiles,
@@ -144,5 +174,6 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
     }
     await tx.update(sessions).set({ clubId: null }).where(eq(sessions.clubId, clubId))
     await tx.delete(clubs).where(eq(clubs.id, clubId))
+    return objects.map((c) => c.key)
   })
 }

@@ -11,7 +11,7 @@ import type { ClubAccess } from '../auth/club-access.ts'
 import { publicOrigin, type AppContext } from '../context.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, elementSteps, elements, squads, users } from '../db/schema.ts'
-import { recommendationEvents, recommendations, visits } from '../db/schema-visits.ts'
+import { clips, recommendationEvents, recommendations, visits } from '../db/schema-visits.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { queues } from '../jobs/queue.ts'
 import { mailNewRecommendation } from './recommendation-mail.ts'
@@ -128,6 +128,7 @@ async function recommendationViews(
     elementName: r.elementName,
     suggestedStepIndex: rec.suggestedStepIndex,
     suggestedStepName: r.stepName,
+    clipId: rec.clipId,
     text: rec.text,
     priority: rec.priority,
     dueOn: rec.dueOn,
@@ -194,6 +195,14 @@ export async function createRecommendation(
     if (athlete.squadId !== squad.id)
       throw invalid('athleteId', `This athlete is not in ${squad.name}.`)
   }
+  if (input.clipId) {
+    const [clip] = await ctx.db
+      .select({ athleteId: clips.athleteId })
+      .from(clips)
+      .where(and(eq(clips.clubId, access.clubId), eq(clips.id, input.clipId)))
+    if (!clip || clip.athleteId !== input.athleteId)
+      throw invalid('clipId', 'Choose a clip of this athlete.')
+  }
   let stepsVersion: number | null = null
   if (input.elementId) {
     const steps = await elementStepsOf(ctx.db, access.clubId, input.elementId)
@@ -216,6 +225,7 @@ export async function createRecommendation(
         elementId: input.elementId ?? null,
         suggestedStepIndex: input.suggestedStepIndex ?? null,
         stepsVersion,
+        clipId: input.clipId ?? null,
         text: input.text,
         priority: input.priority,
         dueOn: input.dueOn,

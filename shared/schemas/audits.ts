@@ -1,3 +1,4 @@
+import type { OutcomeSummary, VisitOutcomes } from '../domain/visit-outcomes.ts'
 import { z } from 'zod'
 import { ageCategories } from '../domain/age-categories.ts'
 import type { AuditComparison } from '../domain/audit/comparison.ts'
@@ -64,6 +65,8 @@ export interface AuditReport {
   squadNames: Record<string, string>
   /** True when the rows were limited to the coach's squads. */
   limitedToSquads: boolean
+  /** What the scope's visits changed, with the elements' and steps' names; null without one. */
+  visitOutcomes: (VisitOutcomes & { elementNames: Record<string, string> }) | null
 }
 
 const requirementSchema = z.object({
@@ -134,5 +137,7 @@ export interface BoardSummary {
     /** Squads with records, by name; those without are only counted. */
     squads: { name: string; frontLag: number; athleteCount: number }[]
     squadsWithoutRecords: number
+    /** The counts of the visits' outcomes only, never the athletes. */
+    visitOutcomes: OutcomeSummary | null
   } | null
 }

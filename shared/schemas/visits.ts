@@ -83,6 +83,8 @@ export const recommendationInputSchema = z
     athleteId: z.uuid('Choose an athlete.').optional(),
     elementId: z.uuid('Choose an element.').optional(),
     suggestedStepIndex: z.number().int().min(0, 'Choose a step.').max(50).optional(),
+    /** A clip of the athlete the recommendation is about. */
+    clipId: z.uuid('Choose a clip of this athlete.').optional(),
     text: text().min(1, 'Write the recommendation.').max(4000),
     priority: z.enum(recommendationPriorities, 'Choose a priority.').default('normal'),
     dueOn: isoDateSchema,
@@ -99,6 +101,12 @@ export const recommendationInputSchema = z
         code: 'custom',
         path: ['suggestedStepIndex'],
         message: 'Choose the step to aim for.',
+      })
+    if (value.clipId && !value.athleteId)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['athleteId'],
+        message: 'A recommendation on a clip names the athlete.',
       })
     if (!value.elementId && value.suggestedStepIndex !== undefined)
       ctx.addIssue({
@@ -153,6 +161,7 @@ export interface RecommendationView {
   elementName: string | null
   suggestedStepIndex: number | null
   suggestedStepName: string | null
+  clipId: string | null
   text: string
   priority: (typeof recommendationPriorities)[number]
   dueOn: string

@@ -35,7 +35,8 @@ export interface RequestOptions {
   signal?: AbortSignal
 }
 
-function withQuery(path: string, query: RequestOptions['query']) {
+/** The path with the non-empty query values appended. */
+export function withQuery(path: string, query: RequestOptions['query']) {
   if (!query) return path
   const params = new URLSearchParams()
   for (const [key, value] of Object.entries(query)) {
@@ -80,7 +81,7 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
   throw new ApiError(response.status, 'http_error', `The server answered ${response.status}.`)
 }
 
-function safeJson(text: string): unknown {
+export function safeJson(text: string): unknown {
   try {
     return JSON.parse(text)
   } catch {

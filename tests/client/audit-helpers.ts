@@ -241,6 +241,7 @@ export function auditReport(partial: Partial<AuditReport> = {}): AuditReport {
     athleteNames: { [athleteIds[0]!]: athleteNames[0]!, [athleteIds[1]!]: athleteNames[1]! },
     squadNames: { [squadIds[0]!]: 'Juniors A', [squadIds[1]!]: 'Development' },
     limitedToSquads: false,
+    visitOutcomes: null,
     ...partial,
   }
 }
@@ -274,6 +275,7 @@ export function boardSummary(partial: Partial<BoardSummary> = {}): BoardSummary 
         athletesWithGaps: fc(8, 7),
         readinessAlerts: fc(2, 2),
       },
+      visitOutcomes: null,
       squads: [
         { name: 'Development', frontLag: 0.2, athleteCount: 14 },
         { name: 'Juniors A', frontLag: 0.31, athleteCount: 10 },

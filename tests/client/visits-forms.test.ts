@@ -89,6 +89,7 @@ describe('VisitsRecommendationList', () => {
     elementName: 'Back tuck',
     suggestedStepIndex: 1,
     suggestedStepName: 'Spotted',
+    clipId: null,
     text: 'Hold the tuck longer.',
     priority: 'high' as const,
     dueOn: '2030-01-10',

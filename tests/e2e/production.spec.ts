@@ -99,6 +99,7 @@ test('migrated and served compiled: health, the client, a PDF drawn on its worke
         DATABASE_URL: databaseUrl,
         PUBLIC_URL: base,
         SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+        S3_BUCKET: 'twofold-clips',
         PORT: String(port),
         LOG_LEVEL: 'info',
       }),
@@ -150,6 +151,7 @@ test('migrated and served compiled: health, the client, a PDF drawn on its worke
         DATABASE_URL: databaseUrl,
         PUBLIC_URL: base,
         SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+        S3_BUCKET: 'twofold-clips',
       }),
       stdio: ['ignore', 'ignore', 'inherit'],
     })

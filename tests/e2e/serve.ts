@@ -3,6 +3,8 @@ import { join } from 'node:path'
 import { parseEnv } from '../../server/env.ts'
 import { defaultClientDir, serve } from '../../server/index.ts'
 import { prepareDatabase } from '../../server/cli/bootstrap.ts'
+import { localClipStorage } from '../../server/cli/fake-s3.ts'
+import { createClipStore } from '../../server/storage/clip-store.ts'
 import {
   clusterUrl,
   ensureDatabase,
@@ -21,13 +23,17 @@ const cluster = await throwawayCluster('twofold-e2e-')
 startCluster(cluster)
 await ensureDatabase(cluster, 'twofold_e2e')
 const url = clusterUrl(cluster, 'twofold_e2e')
-await prepareDatabase(url)
-const env = parseEnv({
-  ...process.env,
-  PORT: process.env.E2E_PORT ?? '3100',
-  LOG_LEVEL: 'warn',
-  DATABASE_URL: url,
-})
+// Clips in a local S3 fake over a temporary folder, removed on the way out.
+const storage = await localClipStorage(
+  parseEnv({
+    ...process.env,
+    PORT: process.env.E2E_PORT ?? '3100',
+    LOG_LEVEL: 'warn',
+    DATABASE_URL: url,
+  }),
+)
+const env = storage.env
+await prepareDatabase(url, { clips: createClipStore(env) })
 const serving = await serve({ ...env, NODE_ENV: 'test' }, { worker: true })
 console.log(`e2e server on ${serving.url}`)
 
@@ -36,6 +42,7 @@ async function stop() {
   if (stopping) return
   stopping = true
   await serving.close()
+  await storage.fake?.close()
   removeCluster(cluster)
   process.exit(0)
 }

@@ -80,6 +80,15 @@ async function athleteInSquad(f: Fixture) {
   })
   return a.id
 }
+// The EBML magic of a WebM (RFC 8794 §8.1) and a few bytes: enough for the type check.
+const clipBytes = Buffer.concat([Buffer.from([0x1a, 0x45, 0xdf, 0xa3]), Buffer.alloc(60, 2)])
+async function uploadedClip(f: Fixture) {
+  const res = await f.director
+    .post(`/api/clubs/${f.club.id}/clips`)
+    .query({ athleteId: await athleteInSquad(f), elementId: await anyElement(f) })
+    .send(clipBytes)
+  return (res.body as { id: string }).id
+}
 async function erasableAthlete(f: Fixture) {
   const familyName = unique()
   const a = await createAthlete(f.db.db, f.club.id, {
@@ -571,6 +580,29 @@ const matrix: Record<string, Row> = {
       path: `/recommendations/${(await recommend(f.t.context, f)).id}/status`,
       body: { status: 'accepted' },
     }),
+  },
+  'GET /clips': {
+    allow: readers,
+    ok: 200,
+    request: async () => ({ path: '/clips' }),
+  },
+  'POST /clips': {
+    allow: ['director', 'coach'],
+    ok: 201,
+    request: async (f) => ({
+      path: `/clips?athleteId=${await athleteInSquad(f)}&elementId=${await anyElement(f)}`,
+      body: clipBytes,
+    }),
+  },
+  'GET /clips/:clipId/video': {
+    allow: readers,
+    ok: 200,
+    request: async (f) => ({ path: `/clips/${await uploadedClip(f)}/video` }),
+  },
+  'POST /clips/:clipId/reviewed': {
+    allow: ['clinician'],
+    ok: 200,
+    request: async (f) => ({ path: `/clips/${await uploadedClip(f)}/reviewed` }),
   },
   'GET /board-summary': {
     allow: ['director', 'board'],

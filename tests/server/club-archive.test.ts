@@ -55,6 +55,8 @@ const archivedIn: Record<string, string> = {
   visit_squads: 'visit-squads.csv',
   recommendations: 'recommendations.csv',
   recommendation_events: 'recommendation-history.csv',
+  clips: 'clips.csv',
+  clip_reviews: 'clip-reviews.csv',
 }
 /** Tables with club_id whose rows the archive leaves out, with the reason. */
 const leftOut: Record<string, string> = {

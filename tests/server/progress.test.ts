@@ -11,6 +11,7 @@ import type { CatalogueElement } from '../../shared/schemas/elements.ts'
 import type { Grid } from '../../shared/schemas/progress.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
+import { scheduleVisit } from '../support/visits.ts'
 import { clubWithPeople, signedIn } from '../support/fixtures.ts'
 
 let database: Database
@@ -343,10 +344,11 @@ describe('who may see and change progress', () => {
     const squads = (await coach.get(`${base}/squads`).expect(200)).body as { id: string }[]
     expect(squads.map((s) => s.id)).toEqual([fx.squad.id])
 
-    // A clinician reads the squads their visit covers, and only those: the visit given with
-    // their membership covers the squads there were then, not one made afterwards.
+    // A clinician reads only the squads their visit covers: this one once a visit covers it.
     await clinician.get(`${base}/squads/${fx.squad.id}/grid`).expect(200)
     await clinician.get(`${base}/squads/${otherSquad.id}/grid`).expect(403)
+    await scheduleVisit(t.context, fx, [otherSquad.id])
+    await clinician.get(`${base}/squads/${otherSquad.id}/grid`).expect(200)
     const write = await log(clinician, stranger.id, {
       elementId: element.id,
       kind: 'step',

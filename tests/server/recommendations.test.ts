@@ -5,13 +5,12 @@ import type { Database } from '../../server/db/client.ts'
 import { elementSteps, mailOutbox } from '../../server/db/schema.ts'
 import { recommendations } from '../../server/db/schema-visits.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
-import { addMembership, createUser } from '../../server/services/members.ts'
 import { remindRecommendation } from '../../server/services/recommendation-mail.ts'
-import { assignCoach, createSquad } from '../../server/services/squads.ts'
 import { addDaysIso } from '../../shared/domain/visits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
-import { addDays, clubWithPeople, floorTucks, signedIn, testPassword } from '../support/fixtures.ts'
+import { squadBWithCoach } from '../support/visits.ts'
+import { addDays, clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
 
 let database: Database
 let t: TestApp
@@ -32,19 +31,8 @@ beforeAll(async () => {
   t = await testApp(database)
   fx = await clubWithPeople(database.db, 'recs')
   other = await clubWithPeople(database.db, 'recs-other')
-  const squadB = await createSquad(database.db, fx.club.id, {
-    name: 'Squad B',
-    level: 'junior',
-    discipline: 'artistic-women',
-  })
   // A second coach, of Squad B only.
-  const user = await createUser(database.db, {
-    email: 'coach-b@test.example',
-    name: 'Coach B',
-    password: testPassword,
-  })
-  await addMembership(database.db, { clubId: fx.club.id, userId: user.id, role: 'coach' })
-  await assignCoach(database.db, fx.club.id, squadB.id, user.id)
+  const squadB = await squadBWithCoach(database.db, fx.club.id, 'coach-b@test.example')
   const athlete = (squadId: string) =>
     createAthlete(database.db, fx.club.id, {
       givenName: 'Ada',

@@ -1,10 +1,12 @@
 import type { AppContext } from '../../server/context.ts'
 import type { DbOrTx } from '../../server/db/client.ts'
+import { addMembership, createUser } from '../../server/services/members.ts'
 import { createRecommendation } from '../../server/services/recommendations.ts'
+import { assignCoach, createSquad } from '../../server/services/squads.ts'
 import { createVisit } from '../../server/services/visits.ts'
 import type { RecommendationInput } from '../../shared/schemas/visits.ts'
 import type { Person } from './fixtures.ts'
-import { addDays } from './fixtures.ts'
+import { addDays, testPassword } from './fixtures.ts'
 
 interface Club {
   club: { id: string }
@@ -41,5 +43,18 @@ export const recommend = (ctx: AppContext, club: Club, input: Partial<Recommenda
     dueOn: addDays(10),
     ...input,
   })
+
+/** A second squad, "Squad B", and a coach of it alone signing in as `email`. */
+export async function squadBWithCoach(db: DbOrTx, clubId: string, email: string) {
+  const squad = await createSquad(db, clubId, {
+    name: 'Squad B',
+    level: 'junior',
+    discipline: 'artistic-women',
+  })
+  const user = await createUser(db, { email, name: 'Coach B', password: testPassword })
+  await addMembership(db, { clubId, userId: user.id, role: 'coach' })
+  await assignCoach(db, clubId, squad.id, user.id)
+  return squad
+}
 
 export type { DbOrTx }
