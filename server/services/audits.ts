@@ -326,7 +326,7 @@ export async function reportWithin(
     gaps: full.gaps.filter((g) => keep(g.squadId)),
     readiness: full.readiness.filter((r) => keep(r.squadId)),
   }
-  const visitOutcomes = await outcomesForReport(db, access.clubId, row.visitOutcomes, keep)
+  const visitOutcomes = await outcomesForReport(db, clubId, row.visitOutcomes, keep)
   const ids = [
     ...new Set([
       ...result.athletes.map((a) => a.athleteId),
