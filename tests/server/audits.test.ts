@@ -225,8 +225,17 @@ describe('running an audit', () => {
       'rank,athlete,squad,backwardElement,backwardStep,forwardElement,forwardStep,deficitSteps,weightedDeficit',
     )
     expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,')
+    // The file name says the scope (the club, for a club audit) and the date.
+    expect(gaps.headers['content-disposition']).toBe(
+      'attachment; filename="gaps-test-club-audit-2026-06-30.csv"',
+    )
     const headline = await coach.get(`${base}/audits/${q2.audit.id}/headline.csv`).expect(200)
-    expect(headline.text).toContain('front-lag,0.666666')
+    expect(headline.headers['content-disposition']).toBe(
+      'attachment; filename="headline-test-club-audit-2026-06-30.csv"',
+    )
+    // Front-lag 2/3 (worked at the top of this file) as a percentage to one decimal: 66.7 %.
+    expect(headline.text).toContain('front-lag,66.7,%,')
+    expect(headline.text.split(/\r?\n/)[0]).toBe('figure,value,unit,changeSincePrevious,changeUnit')
     const pdf = await drawnPdf(director, base, q2.audit.id)
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
   })
