@@ -2,6 +2,7 @@ import PDFDocument from 'pdfkit'
 import { createRequire } from 'node:module'
 import type { CoverageCell } from '../../shared/domain/audit/types.ts'
 import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
+import { stepOf } from '../../shared/domain/progress.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 
 const pct = (n: number | null) => (n === null ? 'no data' : `${(n * 100).toFixed(1)} %`)
@@ -250,10 +251,10 @@ export function reportPdf({ report, clubName, gapTotal }: ReportPdfInput): Promi
     doc.font('regular').fontSize(9)
     for (const [i, g] of report.result.gaps.slice(0, listed).entries()) {
       const forward = g.counterpartName
-        ? `${g.counterpartName} ${g.counterpartStepIndex === null ? 'not started' : `step ${g.counterpartStepIndex + 1}`}`
+        ? `${g.counterpartName} ${g.counterpartStepIndex === null ? 'not started' : stepOf(g.counterpartStepIndex, g.counterpartStepCount)}`
         : 'no forward element in the catalogue'
       doc.text(
-        `${i + 1}. ${report.athleteNames[g.athleteId] ?? ''}: ${g.elementName} step ${g.stepIndex + 1} · ${forward} · ${g.deficitSteps} steps`,
+        `${i + 1}. ${report.athleteNames[g.athleteId] ?? ''}: ${g.elementName} ${stepOf(g.stepIndex, g.stepCount)} · ${forward} · ${g.deficitSteps} steps`,
       )
     }
     if (gapTotal > listed) doc.text(`… and ${gapTotal - listed} more in the CSV export.`)

@@ -171,6 +171,8 @@ export function auditReport(partial: Partial<AuditReport> = {}): AuditReport {
         weightedDeficit: 8,
         counterpartMissing: true,
         counterpartNeverStarted: false,
+        stepCount: 6,
+        counterpartStepCount: null,
       },
       {
         athleteId: athleteIds[1]!,
@@ -187,6 +189,8 @@ export function auditReport(partial: Partial<AuditReport> = {}): AuditReport {
         weightedDeficit: 3,
         counterpartMissing: false,
         counterpartNeverStarted: false,
+        stepCount: 8,
+        counterpartStepCount: 6,
       },
     ],
     readiness: [

@@ -79,9 +79,11 @@ describe('AuditReportView', () => {
     const text = document.body.textContent!
     expect(text).toContain(safetyCaution)
     expect(text).toContain(athleteNames[0])
-    expect(text).toContain('Back double tuck · step 4')
+    // Each step out of its progression's length: index 3 of 6 steps is "step 4 of 6".
+    expect(text).toContain('Back double tuck · step 4 of 6')
     expect(text).toContain('not in the catalogue')
-    expect(text).toContain('Front tuck · step 3')
+    expect(text).toContain('Back tuck · step 6 of 8')
+    expect(text).toContain('Front tuck · step 3 of 6')
     // the rank follows the weighted deficit, shown with its parts (a double weighs 2)
     expect(text).toContain('4 × 2 = 8')
     expect(text).toContain('forecast 2025-08-30')

@@ -127,6 +127,8 @@ describe('running an audit', () => {
         rotationClass: 'single',
         counterpartId: frontTuck,
         counterpartName: 'Front tuck',
+        stepCount: 8,
+        counterpartStepCount: 8,
       },
     ])
     expect(q2.result.gaps).toStrictEqual([
@@ -145,6 +147,9 @@ describe('running an audit', () => {
         weightedDeficit: 4,
         counterpartMissing: false,
         counterpartNeverStarted: true,
+        // Both tucks have eight steps in the fixture: the list reads "step 4 of 8".
+        stepCount: 8,
+        counterpartStepCount: 8,
       },
     ])
   })

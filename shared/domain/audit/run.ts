@@ -191,6 +191,8 @@ export function runAudit(
           weightedDeficit: deficit * weight,
           counterpartMissing: missing,
           counterpartNeverStarted: neverStarted,
+          stepCount: element.stepCount,
+          counterpartStepCount: counterpart?.stepCount ?? null,
         })
         gapsByAthlete[a]!++
       }

@@ -149,6 +149,10 @@ export interface GapEntry {
   /** The counterpart is not in the catalogue: a catalogue gap as well as the athlete's. */
   counterpartMissing: boolean
   counterpartNeverStarted: boolean
+  /** Steps in the element's progression, to read "step 7 of 9"; absent from older audits. */
+  stepCount?: number
+  /** Steps in the counterpart's progression; null when it is not in the catalogue. */
+  counterpartStepCount?: number | null
 }
 
 export interface CatalogueGap {
