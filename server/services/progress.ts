@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gapDeficit } from '../../shared/domain/audit/formulas.ts'
+import { displayNames } from '../../shared/domain/element-names.ts'
 import {
   checkEvent,
   replayRecord,
@@ -643,7 +644,8 @@ export async function missingSkills(
         ),
       ),
   ])
-  const elementById = new Map(list.map((e) => [e.id, e]))
+  const shownName = displayNames(list)
+  const elementById = new Map(list.map((e) => [e.id, { ...e, name: shownName.get(e.id)! }]))
   const stepOf = new Map(rows.map((r) => [`${r.athleteId}|${r.elementId}`, r.stepIndex]))
   const result: MissingSkill[] = []
   for (const r of rows) {

@@ -6,6 +6,7 @@
 
 import { rotationClasses, twistBands, type RotationClass } from '../element.ts'
 import { defaultAgeThresholds } from '../age-categories.ts'
+import { displayNames } from '../element-names.ts'
 import {
   balanceRatio,
   compareText,
@@ -90,7 +91,12 @@ export function runAudit(
   const { asOf } = inputs
   const profiles = inputs.profiles ?? defaultRequirementProfiles
   const thresholds = inputs.ageThresholds ?? defaultAgeThresholds
-  const elements = [...inputs.elements].sort((a, b) => compareText(a.id, b.id))
+  // Names as the lists show them: an element whose name is also used on another apparatus
+  // carries its apparatus, so a floor gap is never mistaken for a trampoline one.
+  const shownName = displayNames(inputs.elements)
+  const elements = [...inputs.elements]
+    .sort((a, b) => compareText(a.id, b.id))
+    .map((e) => ({ ...e, name: shownName.get(e.id)! }))
   const athletes = [...inputs.athletes].sort((a, b) => compareText(a.id, b.id))
 
   const elementAt = new Map<string, number>()
