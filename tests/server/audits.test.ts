@@ -123,10 +123,11 @@ describe('running an audit', () => {
     expect(stored.gapElements).toEqual([
       {
         id: backTuck,
-        name: 'Back tuck',
+        // The standard catalogue has a back tuck on tumbling too: the name says which.
+        name: 'Back tuck (floor)',
         rotationClass: 'single',
         counterpartId: frontTuck,
-        counterpartName: 'Front tuck',
+        counterpartName: 'Front tuck (floor)',
         stepCount: 8,
         counterpartStepCount: 8,
       },
@@ -136,10 +137,10 @@ describe('running an audit', () => {
         athleteId: ada,
         squadId: fx.squad.id,
         elementId: backTuck,
-        elementName: 'Back tuck',
+        elementName: 'Back tuck (floor)',
         rotationClass: 'single',
         counterpartId: frontTuck,
-        counterpartName: 'Front tuck',
+        counterpartName: 'Front tuck (floor)',
         stepIndex: 3,
         counterpartStepIndex: null,
         deficitSteps: 4,
@@ -169,7 +170,7 @@ describe('running an audit', () => {
     const legacy = (await director.get(`${base}/audits/${row!.id}`).expect(200)).body as AuditReport
     expect(legacy.result).toStrictEqual(q2.result)
     const csv = await director.get(`${base}/audits/${row!.id}/gaps.csv`).expect(200)
-    expect(csv.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,4,4')
+    expect(csv.text).toContain('1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,4,4')
   })
 
   it('gives the same hash and numbers over the same inputs', async () => {
@@ -229,7 +230,7 @@ describe('running an audit', () => {
     expect(gaps.text.split(/\r?\n/)[0]).toBe(
       'rank,athlete,squad,backwardElement,backwardStep,forwardElement,forwardStep,deficitSteps,weightedDeficit',
     )
-    expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,')
+    expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,')
     // The file name says the scope (the club, for a club audit) and the date.
     expect(gaps.headers['content-disposition']).toBe(
       'attachment; filename="gaps-test-club-audit-2026-06-30.csv"',
