@@ -672,10 +672,10 @@ export async function missingSkills(
       trailBy: mirror ? trail : null,
     })
   }
+  // Largest trail first; elements with no forward element in the catalogue last (the director's
+  // to add, shown by the client on demand).
   return result.sort(
-    (a, b) =>
-      (b.trailBy ?? Number.MAX_SAFE_INTEGER) - (a.trailBy ?? Number.MAX_SAFE_INTEGER) ||
-      a.athleteName.localeCompare(b.athleteName),
+    (a, b) => (b.trailBy ?? -1) - (a.trailBy ?? -1) || a.athleteName.localeCompare(b.athleteName),
   )
 }
 

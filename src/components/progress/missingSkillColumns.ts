@@ -6,8 +6,8 @@ import { stepOf } from '@shared/domain/progress'
 
 const muted = 'color: var(--tf-muted)'
 
-/** Missing from the catalogue sorts first: no athlete can start it until it is added. */
-const trailOrder = (m: MissingSkill) => m.trailBy ?? Number.MAX_SAFE_INTEGER
+/** Missing from the catalogue sorts last: the director's to add, not the coach's to train. */
+const trailOrder = (m: MissingSkill) => m.trailBy ?? -1
 
 export function missingSkillColumns(): DataTableColumns<MissingSkill> {
   return [
