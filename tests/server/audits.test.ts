@@ -170,7 +170,9 @@ describe('running an audit', () => {
     const legacy = (await director.get(`${base}/audits/${row!.id}`).expect(200)).body as AuditReport
     expect(legacy.result).toStrictEqual(q2.result)
     const csv = await director.get(`${base}/audits/${row!.id}/gaps.csv`).expect(200)
-    expect(csv.text).toContain('1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,4,4')
+    expect(csv.text).toContain(
+      '1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,4,4',
+    )
   })
 
   it('gives the same hash and numbers over the same inputs', async () => {
