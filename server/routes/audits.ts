@@ -5,6 +5,7 @@ import {
   ageThresholdInputSchema,
   auditRunSchema,
   requirementProfileSchema,
+  type AuditReport,
 } from '../../shared/schemas/audits.ts'
 import { publicOrigin, type AppContext } from '../context.ts'
 import { enqueueMail } from '../mail/outbox.ts'
@@ -12,7 +13,7 @@ import { getAuditRun, submitAuditRun } from '../services/audit-runs.ts'
 import { clubs, memberships, users } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
 import { sendCsv } from '../http/responses.ts'
-import { gapsCsv, headlineCsv } from '../services/audit-exports.ts'
+import { exportFileName, gapsCsv, headlineCsv } from '../services/audit-exports.ts'
 import { clubAgeThresholds, clubProfiles } from '../services/audit-inputs.ts'
 import {
   boardSummary,
@@ -40,6 +41,14 @@ const profileId = (raw: unknown) => {
 export function auditRoutes(ctx: AppContext): ClubRoute[] {
   const clubName = async (clubId: string) =>
     (await ctx.db.select({ name: clubs.name }).from(clubs).where(eq(clubs.id, clubId)))[0]!.name
+  // A squad audit is named after its squad, a club audit after the club.
+  const csvName = async (clubId: string, kind: string, report: AuditReport) =>
+    exportFileName(
+      kind,
+      report.audit.squadId ? report.audit.scopeName : await clubName(clubId),
+      report.audit.asOf,
+      'csv',
+    )
   return [
     {
       method: 'get',
@@ -120,7 +129,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       allow: readers,
       handler: async (req, res) => {
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
-        sendCsv(res, `gaps-${report.audit.asOf}.csv`, gapsCsv(report))
+        sendCsv(res, await csvName(req.club.clubId, 'gaps', report), gapsCsv(report))
       },
     },
     {
@@ -129,7 +138,7 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       allow: readers,
       handler: async (req, res) => {
         const report = await getReport(ctx.db, req.club, idParams.parse(req.params).id)
-        sendCsv(res, `headline-${report.audit.asOf}.csv`, headlineCsv(report))
+        sendCsv(res, await csvName(req.club.clubId, 'headline', report), headlineCsv(report))
       },
     },
     {

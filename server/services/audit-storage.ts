@@ -10,6 +10,9 @@ export interface StoredGapElement {
   rotationClass: RotationClass
   counterpartId: string | null
   counterpartName: string | null
+  /** Absent from results computed before gaps carried their progressions' lengths. */
+  stepCount?: number
+  counterpartStepCount?: number | null
 }
 
 /**
@@ -60,6 +63,10 @@ export function packAuditResult(result: AuditResult): StoredAuditResult {
         rotationClass: g.rotationClass,
         counterpartId: g.counterpartId,
         counterpartName: g.counterpartName,
+        ...(g.stepCount === undefined ? {} : { stepCount: g.stepCount }),
+        ...(g.counterpartStepCount === undefined
+          ? {}
+          : { counterpartStepCount: g.counterpartStepCount }),
       })
     }
     // Checked here, once per audit, so that a stored result can never read back differently
@@ -72,6 +79,8 @@ export function packAuditResult(result: AuditResult): StoredAuditResult {
       shared.rotationClass === g.rotationClass &&
       shared.counterpartId === g.counterpartId &&
       shared.counterpartName === g.counterpartName &&
+      shared.stepCount === g.stepCount &&
+      shared.counterpartStepCount === g.counterpartStepCount &&
       weights[g.rotationClass] === g.weight &&
       g.deficitSteps * g.weight === g.weightedDeficit &&
       g.counterpartMissing === (g.counterpartName === null) &&
@@ -126,6 +135,10 @@ export function unpackAuditResult(stored: StoredAuditResult | AuditResult): Audi
         weightedDeficit: deficitSteps * weight,
         counterpartMissing,
         counterpartNeverStarted: !counterpartMissing && counterpartStepIndex === null,
+        ...(element.stepCount === undefined ? {} : { stepCount: element.stepCount }),
+        ...(element.counterpartStepCount === undefined
+          ? {}
+          : { counterpartStepCount: element.counterpartStepCount }),
       }
     },
   )

@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gapDeficit } from '../../shared/domain/audit/formulas.ts'
+import { displayNames } from '../../shared/domain/element-names.ts'
 import {
   checkEvent,
   replayRecord,
@@ -643,7 +644,8 @@ export async function missingSkills(
         ),
       ),
   ])
-  const elementById = new Map(list.map((e) => [e.id, e]))
+  const shownName = displayNames(list)
+  const elementById = new Map(list.map((e) => [e.id, { ...e, name: shownName.get(e.id)! }]))
   const stepOf = new Map(rows.map((r) => [`${r.athleteId}|${r.elementId}`, r.stepIndex]))
   const result: MissingSkill[] = []
   for (const r of rows) {
@@ -670,10 +672,10 @@ export async function missingSkills(
       trailBy: mirror ? trail : null,
     })
   }
+  // Largest trail first; elements with no forward element in the catalogue last (the director's
+  // to add, shown by the client on demand).
   return result.sort(
-    (a, b) =>
-      (b.trailBy ?? Number.MAX_SAFE_INTEGER) - (a.trailBy ?? Number.MAX_SAFE_INTEGER) ||
-      a.athleteName.localeCompare(b.athleteName),
+    (a, b) => (b.trailBy ?? -1) - (a.trailBy ?? -1) || a.athleteName.localeCompare(b.athleteName),
   )
 }
 

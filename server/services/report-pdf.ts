@@ -1,7 +1,8 @@
 import PDFDocument from 'pdfkit'
 import { createRequire } from 'node:module'
-import type { CoverageCell } from '../../shared/domain/audit/types.ts'
+import type { CatalogueGap, CoverageCell } from '../../shared/domain/audit/types.ts'
 import { rotationClassLabels, safetyCaution, twistBandLabels } from '../../shared/domain/element.ts'
+import { stepOf } from '../../shared/domain/progress.ts'
 import type { AuditReport } from '../../shared/schemas/audits.ts'
 
 const pct = (n: number | null) => (n === null ? 'no data' : `${(n * 100).toFixed(1)} %`)
@@ -21,12 +22,15 @@ export interface ReportPdfInput {
 }
 
 export function reportPdfInput(report: AuditReport, clubName: string): ReportPdfInput {
-  const gaps = report.result.gaps.slice(0, listed)
+  // The athletes' gaps only: those waiting for a forward element in the catalogue are listed by
+  // element in their own section (the result's catalogueGaps), not athlete by athlete.
+  const athleteGaps = report.result.gaps.filter((g) => !g.counterpartMissing)
+  const gaps = athleteGaps.slice(0, listed)
   const readiness = report.result.readiness.filter((r) => r.missingCount > 0).slice(0, listed)
   const named = new Set([...gaps.map((g) => g.athleteId), ...readiness.map((r) => r.athleteId)])
   return {
     clubName,
-    gapTotal: report.result.gaps.length,
+    gapTotal: athleteGaps.length,
     report: {
       ...report,
       result: { ...report.result, gaps, readiness },
@@ -34,6 +38,23 @@ export function reportPdfInput(report: AuditReport, clubName: string): ReportPdf
         Object.entries(report.athleteNames).filter(([id]) => named.has(id)),
       ),
     },
+  }
+}
+
+/** Backward elements with no forward element in the catalogue: the director's to add. */
+function catalogueGapSection(doc: PDFKit.PDFDocument, gaps: readonly CatalogueGap[]) {
+  doc.font('bold').fontSize(12).text(`Catalogue gaps (${gaps.length})`)
+  doc.font('regular').fontSize(9)
+  if (gaps.length === 0)
+    doc.text('Every backward element has its forward element in the catalogue.')
+  else
+    doc.text('Backward elements with no forward element in the catalogue, for the director to add:')
+  for (const g of gaps) {
+    const athletes =
+      g.athleteCount === undefined
+        ? ''
+        : ` · ${g.athleteCount} ${g.athleteCount === 1 ? 'athlete' : 'athletes'} working it`
+    doc.text(`${g.elementName}${athletes}`)
   }
 }
 
@@ -250,13 +271,16 @@ export function reportPdf({ report, clubName, gapTotal }: ReportPdfInput): Promi
     doc.font('regular').fontSize(9)
     for (const [i, g] of report.result.gaps.slice(0, listed).entries()) {
       const forward = g.counterpartName
-        ? `${g.counterpartName} ${g.counterpartStepIndex === null ? 'not started' : `step ${g.counterpartStepIndex + 1}`}`
+        ? `${g.counterpartName} ${g.counterpartStepIndex === null ? 'not started' : stepOf(g.counterpartStepIndex, g.counterpartStepCount)}`
         : 'no forward element in the catalogue'
       doc.text(
-        `${i + 1}. ${report.athleteNames[g.athleteId] ?? ''}: ${g.elementName} step ${g.stepIndex + 1} · ${forward} · ${g.deficitSteps} steps`,
+        `${i + 1}. ${report.athleteNames[g.athleteId] ?? ''}: ${g.elementName} ${stepOf(g.stepIndex, g.stepCount)} · ${forward} · ${g.deficitSteps} steps`,
       )
     }
+    if (gapTotal === 0) doc.text('No gaps: every forward element keeps up.')
     if (gapTotal > listed) doc.text(`… and ${gapTotal - listed} more in the CSV export.`)
+    doc.moveDown()
+    catalogueGapSection(doc, report.result.catalogueGaps)
     doc.moveDown()
     doc.font('bold').fontSize(12).text('Readiness for the next age category')
     doc.font('regular').fontSize(9)

@@ -233,6 +233,14 @@ export interface CheckContext {
 /** Common practice (no published source): rebuild a lost skill from two steps back. */
 export const defaultLostSkillStepDown = 2
 
+/**
+ * A step as people count it, from 1 and out of the progression's length: index 6 of a
+ * nine-step progression is "step 7 of 9". Without the length (an older audit) it is "step 7".
+ */
+export function stepOf(stepIndex: number, stepCount?: number | null): string {
+  return stepCount ? `step ${stepIndex + 1} of ${stepCount}` : `step ${stepIndex + 1}`
+}
+
 /** People count steps from 1, the data from 0. */
 function stepLabel(steps: readonly ProgressionStepRule[], index: number): string {
   const name = steps[index]?.name

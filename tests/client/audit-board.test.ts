@@ -3,6 +3,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import * as api from '@/api/audits'
 import BoardSummaryView from '@/views/BoardSummaryView.vue'
 import { athleteNames, auditReport, boardSummary, mountInProviders, wait } from './audit-helpers'
+import { savedImageTitles } from './audit-chart-stub'
 
 vi.mock('vue-chartjs', async () => {
   const { ChartStub } = await import('./audit-chart-stub')
@@ -75,6 +76,11 @@ describe('BoardSummaryView', () => {
     expect(clicked).toHaveLength(1)
     expect(clicked[0]!.href).toContain('data:image/png')
     expect(clicked[0]!.download).toBe('Demo-club-balance-2025-06-30.png')
+    // The image carries a title, the club's name and the audit date.
+    expect(savedImageTitles.at(-1)).toMatchObject({
+      display: true,
+      text: ['Forward/backward balance over time', 'Demo club · audit as of 2025-06-30'],
+    })
   })
 
   it('shows the change the server computed, and counts squads without records apart', async () => {

@@ -6,6 +6,9 @@ import { defineComponent, h, type PropType } from 'vue'
  * them. It prints the labels and dataset labels it is given, so a test can read what the chart
  * would show, and exposes a `chart` that saves as an image as Chart.js does.
  */
+/** The title options each saved image was drawn with, oldest first. */
+export const savedImageTitles: unknown[] = []
+
 export const ChartStub = defineComponent({
   props: {
     data: {
@@ -17,7 +20,15 @@ export const ChartStub = defineComponent({
     ariaLabel: { type: String, default: '' },
   },
   setup(props, { expose }) {
-    expose({ chart: { toBase64Image: () => 'data:image/png;base64,AAAA' } })
+    const chart = {
+      options: { plugins: {} as { title?: unknown } },
+      update: () => {},
+      toBase64Image: () => {
+        savedImageTitles.push(chart.options.plugins.title)
+        return 'data:image/png;base64,AAAA'
+      },
+    }
+    expose({ chart })
     return () =>
       h('div', { 'data-test': 'chart', 'aria-label': props.ariaLabel }, [
         h('span', { class: 'chart-labels' }, (props.data.labels ?? []).map(String).join(' | ')),

@@ -79,11 +79,11 @@ describe('AuditReportView', () => {
     const text = document.body.textContent!
     expect(text).toContain(safetyCaution)
     expect(text).toContain(athleteNames[0])
-    expect(text).toContain('Back double tuck · step 4')
-    expect(text).toContain('not in the catalogue')
-    expect(text).toContain('Front tuck · step 3')
-    // the rank follows the weighted deficit, shown with its parts (a double weighs 2)
-    expect(text).toContain('4 × 2 = 8')
+    // Each step out of its progression's length: index 5 of 8 steps is "step 6 of 8".
+    expect(text).toContain('Back tuck · step 6 of 8')
+    expect(text).toContain('Front tuck · step 3 of 6')
+    // the rank follows the weighted deficit, shown with its parts (a single weighs 1)
+    expect(text).toContain('3 × 1 = 3')
     expect(text).toContain('forecast 2025-08-30')
     expect(text).toContain('on time')
     expect(byTest('input-hash')!.textContent).toBe(auditReport().audit.inputHash)
@@ -144,5 +144,34 @@ describe('AuditReportView', () => {
     expect(byTest('squads-without-records')!.textContent).toContain(
       '1 squad without records (no data, not ranked): Development.',
     )
+  })
+
+  it('keeps catalogue gaps out of the athletes’ gap list, in their own section, shown there on demand', async () => {
+    // The back double tuck has no forward element in the catalogue: however large its weighted
+    // deficit (8 against the back tuck's 3), it is the director's to fix, not the coach's.
+    const report = auditReport()
+    report.result.catalogueGaps = [
+      {
+        elementId: 'e-back-double',
+        elementName: 'Back double tuck',
+        counterpartId: null,
+        athleteCount: 1,
+      },
+    ]
+    vi.mocked(api.getAuditReport).mockResolvedValue(report)
+    mountInProviders(AuditReportView, { id: auditId })
+    await settle()
+    const cardTitles = [...document.querySelectorAll('h2')].map((h) => h.textContent)
+    expect(cardTitles).toContain('Gaps (1)')
+    expect(cardTitles).toContain('Catalogue gaps (1)')
+    expect(document.body.textContent).not.toContain('Back double tuck · step 4 of 6')
+    expect(byTest('catalogue-gaps')!.textContent).toContain(
+      'Back double tuck · no forward element · 1 athlete working it',
+    )
+
+    byTest('gap-catalogue-filter')!.querySelector<HTMLElement>('.n-checkbox-box')!.click()
+    await settle()
+    expect(document.body.textContent).toContain('Back double tuck · step 4 of 6')
+    expect(document.body.textContent).toContain('not in the catalogue')
   })
 })

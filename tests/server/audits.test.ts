@@ -123,10 +123,13 @@ describe('running an audit', () => {
     expect(stored.gapElements).toEqual([
       {
         id: backTuck,
-        name: 'Back tuck',
+        // The standard catalogue has a back tuck on tumbling too: the name says which.
+        name: 'Back tuck (floor)',
         rotationClass: 'single',
         counterpartId: frontTuck,
-        counterpartName: 'Front tuck',
+        counterpartName: 'Front tuck (floor)',
+        stepCount: 8,
+        counterpartStepCount: 8,
       },
     ])
     expect(q2.result.gaps).toStrictEqual([
@@ -134,10 +137,10 @@ describe('running an audit', () => {
         athleteId: ada,
         squadId: fx.squad.id,
         elementId: backTuck,
-        elementName: 'Back tuck',
+        elementName: 'Back tuck (floor)',
         rotationClass: 'single',
         counterpartId: frontTuck,
-        counterpartName: 'Front tuck',
+        counterpartName: 'Front tuck (floor)',
         stepIndex: 3,
         counterpartStepIndex: null,
         deficitSteps: 4,
@@ -145,6 +148,9 @@ describe('running an audit', () => {
         weightedDeficit: 4,
         counterpartMissing: false,
         counterpartNeverStarted: true,
+        // Both tucks have eight steps in the fixture: the list reads "step 4 of 8".
+        stepCount: 8,
+        counterpartStepCount: 8,
       },
     ])
   })
@@ -164,7 +170,9 @@ describe('running an audit', () => {
     const legacy = (await director.get(`${base}/audits/${row!.id}`).expect(200)).body as AuditReport
     expect(legacy.result).toStrictEqual(q2.result)
     const csv = await director.get(`${base}/audits/${row!.id}/gaps.csv`).expect(200)
-    expect(csv.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,4,4')
+    expect(csv.text).toContain(
+      '1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,4,4',
+    )
   })
 
   it('gives the same hash and numbers over the same inputs', async () => {
@@ -224,9 +232,18 @@ describe('running an audit', () => {
     expect(gaps.text.split(/\r?\n/)[0]).toBe(
       'rank,athlete,squad,backwardElement,backwardStep,forwardElement,forwardStep,deficitSteps,weightedDeficit',
     )
-    expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck,4,Front tuck,,')
+    expect(gaps.text).toContain('1,Ada Quillmere,Squad A,Back tuck (floor),4,Front tuck (floor),,')
+    // The file name says the scope (the club, for a club audit) and the date.
+    expect(gaps.headers['content-disposition']).toBe(
+      'attachment; filename="gaps-test-club-audit-2026-06-30.csv"',
+    )
     const headline = await coach.get(`${base}/audits/${q2.audit.id}/headline.csv`).expect(200)
-    expect(headline.text).toContain('front-lag,0.666666')
+    expect(headline.headers['content-disposition']).toBe(
+      'attachment; filename="headline-test-club-audit-2026-06-30.csv"',
+    )
+    // Front-lag 2/3 (worked at the top of this file) as a percentage to one decimal: 66.7 %.
+    expect(headline.text).toContain('front-lag,66.7,%,')
+    expect(headline.text.split(/\r?\n/)[0]).toBe('figure,value,unit,changeSincePrevious,changeUnit')
     const pdf = await drawnPdf(director, base, q2.audit.id)
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
   })

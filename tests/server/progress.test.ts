@@ -512,6 +512,14 @@ describe('the squad grid and the missing-skills list', () => {
         forward: expect.objectContaining({ elementId: frontTuck.id, stepIndex: null }),
       }),
     ])
+    // The standard catalogue has a back tuck on floor and on tumbling: the list says which.
+    expect([missing[0].backward.name, missing[0].forward.name]).toEqual([
+      `${backTuck.name} (floor)`,
+      `${frontTuck.name} (floor)`,
+    ])
+    expect(catalogue.filter((e) => e.name === backTuck.name).map((e) => e.apparatus)).toEqual(
+      expect.arrayContaining(['floor', 'tumbling']),
+    )
     // two steps behind counts, one does not
     const r1 = await log(director, athlete.id, {
       elementId: frontTuck.id,

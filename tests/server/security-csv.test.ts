@@ -199,10 +199,14 @@ describe('CSV exports and spreadsheet formulae', () => {
     const figures = cellsOf(headline.text)
     expectNoFormulae(figures)
     const frontLag = figures.find((r) => r[0] === 'front-lag')!
-    expect(frontLag[2]).toMatch(plainNumber)
-    expect(Number(frontLag[2])).toBeCloseTo(report.comparison.clubFrontLag.change!, 10)
+    const change = frontLag[figures[0]!.indexOf('changeSincePrevious')]!
+    expect(change).toMatch(plainNumber)
+    // in percentage points, rounded to one decimal as the report shows it
+    expect(Math.abs(Number(change) - report.comparison.clubFrontLag.change! * 100)).toBeLessThan(
+      0.05 + 1e-9,
+    )
     // written bare, so a spreadsheet reads a negative number, not text
-    expect(headline.text).toContain(`,${frontLag[2]}\r\n`)
+    expect(headline.text).toContain(`,${change},pts\r\n`)
   })
 })
 

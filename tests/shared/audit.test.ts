@@ -159,8 +159,13 @@ describe('runAudit', () => {
     expect(h.squadFrontLags['squad-a']).toBeCloseTo(1 - 1.1 / 1.75, 12)
     expect(h.squadFrontLags['squad-b']).toBe(1)
     expect(h.catalogueGaps).toBe(2)
-    expect(h.gapCount).toBe(5)
+    // dee bt, ana bt, dee bp; ana bdt and dee bwo wait for the catalogue and are counted there
+    expect(h.gapCount).toBe(3)
     expect(h.athletesWithGaps).toBe(2)
+    expect(result.catalogueGaps.map((c) => [c.elementId, c.athleteCount])).toEqual([
+      ['bdt', 1], // ana
+      ['bwo', 1], // dee
+    ])
     expect(h.readinessAlerts).toBe(2)
   })
 
@@ -171,20 +176,21 @@ describe('runAudit', () => {
     expect(onlyForward.headline.clubBackLag).toBe(1)
   })
 
-  it('ranks gaps by the deficit weighted by rotation class, ties by the larger deficit', () => {
+  it('ranks gaps by the deficit weighted by rotation class, ties by the larger deficit, the catalogue’s last', () => {
     expect(
       result.gaps.map((g) => [g.athleteId, g.elementId, g.deficitSteps, g.weightedDeficit]),
     ).toEqual([
       // dee bt: counterpart ft never started: target 3 − (−1) = 4 steps × single 1 = 4
       ['dee', 'bt', 4, 4],
-      // ana bdt: counterpart missing: 2 steps reached × double 2 = 4 (tie on 4, fewer steps)
-      ['ana', 'bdt', 2, 4],
       // ana bt: 4 − 2 = 2 steps, at the threshold × single 1 = 2
       ['ana', 'bt', 2, 2],
-      // dee bwo: no counterpart: 2 steps × none 0.5 = 1
-      ['dee', 'bwo', 2, 1],
       // dee bp: fp never started, 1 step below the threshold but never started × single 1 = 1
       ['dee', 'bp', 1, 1],
+      // Then the gaps the catalogue must close, however large:
+      // ana bdt: counterpart missing: 2 steps reached × double 2 = 4 (above ana bt, ranked below)
+      ['ana', 'bdt', 2, 4],
+      // dee bwo: no counterpart: 2 steps × none 0.5 = 1
+      ['dee', 'bwo', 2, 1],
     ])
     // ana bf against ff (deficit 0) is no gap
     expect(result.gaps.some((g) => g.elementId === 'bf')).toBe(false)
@@ -235,16 +241,17 @@ describe('runAudit', () => {
     // ana bt (2 steps) drops out; never-started and missing counterparts stay
     expect(strict.gaps.map((g) => [g.athleteId, g.elementId, g.weightedDeficit])).toEqual([
       ['dee', 'bt', 4],
+      ['dee', 'bp', 1],
       ['ana', 'bdt', 2],
       ['dee', 'bwo', 2],
-      ['dee', 'bp', 1],
     ])
   })
 
   it('counts gaps per squad', () => {
     expect(result.squads.map((s) => [s.squadId, s.gapCount, s.athletesWithGaps])).toEqual([
-      ['squad-a', 2, 1],
-      ['squad-b', 3, 1],
+      // ana bt (ana bdt is the catalogue's); dee bt and dee bp (dee bwo is the catalogue's)
+      ['squad-a', 1, 1],
+      ['squad-b', 2, 1],
     ])
   })
 
@@ -460,8 +467,8 @@ describe('compareAudits', () => {
     expect(change.clubFrontLag.change).toBeCloseTo(-24 / 104, 12)
     // balance: (1.5 + 0.8) / (52/15) = 34.5/52 = 69/104, up from 45/104
     expect(change.balanceRatio.change).toBeCloseTo(24 / 104, 12)
-    // dee's back tuck gap closes: 5 → 4 gaps
-    expect(change.gapCount).toEqual({ previous: 5, current: 4, change: -1 })
+    // dee's back tuck gap closes: 3 → 2 gaps
+    expect(change.gapCount).toEqual({ previous: 3, current: 2, change: -1 })
     expect(change.athletesWithGaps).toEqual({ previous: 2, current: 2, change: 0 })
     expect(change.athleteCount).toEqual({ previous: 4, current: 5, change: 1 })
     // squad B front-lag: 1 → 1 − 0.8 / (103/60) = 1 − 48/103 = 55/103

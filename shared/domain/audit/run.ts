@@ -6,6 +6,7 @@
 
 import { rotationClasses, twistBands, type RotationClass } from '../element.ts'
 import { defaultAgeThresholds } from '../age-categories.ts'
+import { displayNames } from '../element-names.ts'
 import {
   balanceRatio,
   compareText,
@@ -90,7 +91,12 @@ export function runAudit(
   const { asOf } = inputs
   const profiles = inputs.profiles ?? defaultRequirementProfiles
   const thresholds = inputs.ageThresholds ?? defaultAgeThresholds
-  const elements = [...inputs.elements].sort((a, b) => compareText(a.id, b.id))
+  // Names as the lists show them: an element whose name is also used on another apparatus
+  // carries its apparatus, so a floor gap is never mistaken for a trampoline one.
+  const shownName = displayNames(inputs.elements)
+  const elements = [...inputs.elements]
+    .sort((a, b) => compareText(a.id, b.id))
+    .map((e) => ({ ...e, name: shownName.get(e.id)! }))
   const athletes = [...inputs.athletes].sort((a, b) => compareText(a.id, b.id))
 
   const elementAt = new Map<string, number>()
@@ -191,8 +197,12 @@ export function runAudit(
           weightedDeficit: deficit * weight,
           counterpartMissing: missing,
           counterpartNeverStarted: neverStarted,
+          stepCount: element.stepCount,
+          counterpartStepCount: counterpart?.stepCount ?? null,
         })
-        gapsByAthlete[a]!++
+        // A gap whose forward element the catalogue lacks is the director's to fix, not the
+        // athlete's: counted with the catalogue gaps, not among the athlete's gaps.
+        if (!missing) gapsByAthlete[a]!++
       }
     }
     for (let cell = 0; cell < cellCount; cell++) {
@@ -214,8 +224,10 @@ export function runAudit(
   })
 
   onProgress?.({ phase: 'gaps', done: 0, total: gaps.length })
+  // Gaps a coach can act on first; those waiting for the catalogue after them, however large.
   gaps.sort(
     (x, y) =>
+      Number(x.counterpartMissing) - Number(y.counterpartMissing) ||
       y.weightedDeficit - x.weightedDeficit ||
       y.deficitSteps - x.deficitSteps ||
       compareText(x.athleteId, y.athleteId) ||
@@ -293,7 +305,14 @@ export function runAudit(
 
   const total = emptySums()
   for (const sums of athleteSums) addSums(total, sums)
-  const catalogueGaps = findCatalogueGaps(elements)
+  const affected = new Map<string, number>()
+  for (const g of gaps) {
+    if (g.counterpartMissing) affected.set(g.elementId, (affected.get(g.elementId) ?? 0) + 1)
+  }
+  const catalogueGaps = findCatalogueGaps(elements).map((c) => ({
+    ...c,
+    athleteCount: affected.get(c.elementId) ?? 0,
+  }))
 
   const result: AuditResult = {
     asOf,
@@ -306,7 +325,7 @@ export function runAudit(
       squadFrontLags: Object.fromEntries(squads.map((s) => [s.squadId, s.frontLag])),
       squadsWithoutRecords: squads.filter((s) => s.athletesWithRecords === 0).length,
       catalogueGaps: catalogueGaps.length,
-      gapCount: gaps.length,
+      gapCount: gaps.filter((g) => !g.counterpartMissing).length,
       athletesWithGaps: gapsByAthlete.filter((n) => n > 0).length,
       readinessAlerts: alertAthletes.size,
     },

@@ -113,6 +113,7 @@ export interface SquadBreakdown {
   forwardProficiency: number
   backwardProficiency: number
   balanceRatio: number | null
+  /** Gaps a coach can act on: the counterpart is in the catalogue. */
   gapCount: number
   athletesWithGaps: number
   readinessAlerts: number
@@ -146,15 +147,27 @@ export interface GapEntry {
   deficitSteps: number
   weight: number
   weightedDeficit: number
-  /** The counterpart is not in the catalogue: a catalogue gap as well as the athlete's. */
+  /**
+   * The counterpart is not in the catalogue: a catalogue gap, the director's to fix. Ranked after
+   * every other gap and left out of the gap counts (see `CatalogueGap.athleteCount`).
+   */
   counterpartMissing: boolean
   counterpartNeverStarted: boolean
+  /** Steps in the element's progression, to read "step 7 of 9"; absent from older audits. */
+  stepCount?: number
+  /** Steps in the counterpart's progression; null when it is not in the catalogue. */
+  counterpartStepCount?: number | null
 }
 
 export interface CatalogueGap {
   elementId: string
   elementName: string
   counterpartId: string | null
+  /**
+   * Athletes in scope with progress on the element, whose forward work waits for the catalogue;
+   * absent from older audits.
+   */
+  athleteCount?: number
 }
 
 export interface RequirementStatus {
@@ -208,6 +221,7 @@ export interface AuditHeadline {
    */
   squadsWithoutRecords?: number
   catalogueGaps: number
+  /** Gaps a coach can act on: the counterpart is in the catalogue. */
   gapCount: number
   athletesWithGaps: number
   /** Athletes changing category within the horizon with at least one requirement unmet. */

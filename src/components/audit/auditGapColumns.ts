@@ -1,5 +1,6 @@
 import { NTag, type DataTableColumns } from 'naive-ui'
 import { h } from 'vue'
+import { stepOf } from '@shared/domain/progress'
 import type { RankedGap } from '@/stores/auditReport'
 
 export interface AuditGapColumnContext {
@@ -9,9 +10,6 @@ export interface AuditGapColumnContext {
 
 const muted = 'color: var(--tf-muted)'
 
-/** Steps are counted from 1 on screen, as coaches count them; the audit stores indices. */
-const step = (index: number) => `step ${index + 1}`
-
 function counterpartCell(gap: RankedGap) {
   if (gap.counterpartMissing) {
     return h(NTag, { size: 'small', type: 'warning' }, () => 'not in the catalogue')
@@ -20,7 +18,10 @@ function counterpartCell(gap: RankedGap) {
   if (gap.counterpartNeverStarted || gap.counterpartStepIndex === null) {
     return h('span', [name, h('span', { style: muted }, ' · not started')])
   }
-  return h('span', [name, h('span', { style: muted }, ` · ${step(gap.counterpartStepIndex)}`)])
+  return h('span', [
+    name,
+    h('span', { style: muted }, ` · ${stepOf(gap.counterpartStepIndex, gap.counterpartStepCount)}`),
+  ])
 }
 
 /** The ranked gap list: backward elements whose forward counterpart trails. */
@@ -44,7 +45,10 @@ export function auditGapColumns(context: AuditGapColumnContext): DataTableColumn
       key: 'elementName',
       minWidth: 190,
       render: (g) =>
-        h('span', [g.elementName, h('span', { style: muted }, ` · ${step(g.stepIndex)}`)]),
+        h('span', [
+          g.elementName,
+          h('span', { style: muted }, ` · ${stepOf(g.stepIndex, g.stepCount)}`),
+        ]),
     },
     {
       title: 'Forward counterpart',

@@ -11,3 +11,11 @@ export function boardFigures(summary: BoardSummary): HeadlineFigure[] {
   if (!latest) return []
   return reportFigures(latest, latest.comparison)
 }
+
+/**
+ * The title drawn on the saved chart image, so that it still says what it shows once pasted into
+ * slides or minutes: what the chart is, the club, and the date of the latest audit in it.
+ */
+export function chartImageTitle(clubName: string, asOf: string): string[] {
+  return ['Forward/backward balance over time', `${clubName} · audit as of ${asOf}`]
+}

@@ -2,12 +2,12 @@ import { type DataTableColumns } from 'naive-ui'
 import { h } from 'vue'
 import { RouterLink } from 'vue-router'
 import type { MissingSkill } from '@shared/schemas/progress'
-import { stepFraction } from './progressFormat'
+import { stepOf } from '@shared/domain/progress'
 
 const muted = 'color: var(--tf-muted)'
 
-/** Missing from the catalogue sorts first: no athlete can start it until it is added. */
-const trailOrder = (m: MissingSkill) => m.trailBy ?? Number.MAX_SAFE_INTEGER
+/** Missing from the catalogue sorts last: the director's to add, not the coach's to train. */
+const trailOrder = (m: MissingSkill) => m.trailBy ?? -1
 
 export function missingSkillColumns(): DataTableColumns<MissingSkill> {
   return [
@@ -30,11 +30,7 @@ export function missingSkillColumns(): DataTableColumns<MissingSkill> {
       render: (m) =>
         h('span', [
           m.backward.name,
-          h(
-            'span',
-            { style: muted },
-            ` · ${stepFraction(m.backward.stepIndex, m.backward.stepCount)}`,
-          ),
+          h('span', { style: muted }, ` · ${stepOf(m.backward.stepIndex, m.backward.stepCount)}`),
         ]),
     },
     {
@@ -50,7 +46,7 @@ export function missingSkillColumns(): DataTableColumns<MissingSkill> {
             { style: muted },
             m.forward.stepIndex === null
               ? ' · not started'
-              : ` · ${stepFraction(m.forward.stepIndex, m.forward.stepCount)}`,
+              : ` · ${stepOf(m.forward.stepIndex, m.forward.stepCount)}`,
           ),
         ])
       },
