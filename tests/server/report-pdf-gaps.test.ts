@@ -31,6 +31,7 @@ const report: AuditReport = {
   athleteNames: { ana: 'Ana Example', ben: 'Ben Example', cai: 'Cai Example', dee: 'Dee Example' },
   squadNames: { 'squad-a': 'Squad A', 'squad-b': 'Squad B' },
   limitedToSquads: false,
+  visitOutcomes: null,
 }
 
 describe('the PDF report', () => {
