@@ -73,6 +73,8 @@ export function appEnvironment(databaseUrl: string, extra: Record<string, string
     DATABASE_URL: databaseUrl,
     // Required in production; nothing here sends mail from the web process.
     SMTP_URL: 'smtp://127.0.0.1:9',
+    // Clips are not measured; with them on, production would want a bucket.
+    CLIPS_ENABLED: 'false',
     ...extra,
   }
 }
