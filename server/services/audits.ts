@@ -177,9 +177,13 @@ export async function computeAudit(
   onProgress({ phase: 'reading', done: 0, total: 1 })
   const inputs = await gatherInputs(db, access.clubId, run.squadId, asOf)
   onProgress({ phase: 'reading', done: 1, total: 1 })
+  // The hash's text is built first; its digest (Web Crypto, on a thread of Node's pool) then runs
+  // while the audit computes.
+  const hashing = auditInputHash(inputs)
+  hashing.catch(() => undefined) // awaited below; not an unhandled rejection should the audit throw
   const result = runAudit(inputs, {}, (p: AuditProgress) => onProgress(p))
   onProgress({ phase: 'hashing', done: 0, total: 1 })
-  const inputHash = await auditInputHash(inputs)
+  const inputHash = await hashing
   const visitOutcomes = await gatherVisitOutcomes(db, access.clubId, run.squadId, asOf)
   return {
     clubId: access.clubId,

@@ -4,6 +4,7 @@ import type { Database } from '../../server/db/client.ts'
 import { athletes, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
+import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
 import {
   appendHistory,
   backfillRecordTimelines,
@@ -200,5 +201,9 @@ describe('the audit’s inputs as of a date', () => {
     )
     expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
     expect(inTransaction.paces).toEqual(inputs.paces)
+    // The hash reads the records' texts as they were gathered, batch by batch; the same records
+    // in another order, worked out afresh and sorted, hash the same.
+    const reordered = { ...inputs, records: [...inputs.records].reverse() }
+    expect(await auditInputHash(inputs)).toBe(await auditInputHash(reordered))
   }, 60_000)
 })
