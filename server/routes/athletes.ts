@@ -15,13 +15,8 @@ import {
 import { removeClipObjects } from '../services/clips.ts'
 import { eraseAthlete } from '../services/erasure.ts'
 import { progressDue } from '../services/progress-due.ts'
-import {
-  athleteRecords,
-  missingSkills,
-  previewEvent,
-  recordDetail,
-  recordEvent,
-} from '../services/progress.ts'
+import { previewEvent, recordEvent } from '../services/progress-events.ts'
+import { athleteRecords, missingSkills, recordDetail } from '../services/progress-reads.ts'
 import type { ClubRoute } from './club-routes.ts'
 
 const athleteParams = z.object({ athleteId: z.uuid('No such athlete.') })
