@@ -1,22 +1,20 @@
-import { and, eq, inArray } from 'drizzle-orm'
-import {
-  checkEvent,
-  replayRecord,
-  type CheckResult,
-  type PrerequisiteStatus,
-  type ProposedEvent,
-} from '../../shared/domain/progress.ts'
+import { and, eq } from 'drizzle-orm'
+import { replayRecord, type CheckResult, type ProposedEvent } from '../../shared/domain/progress.ts'
 import type { EventResult, ProgressEventInput } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import {
-  clubs,
-  elementPrerequisites,
-  elements,
-  progressEvents,
-  progressRecords,
-} from '../db/schema.ts'
+import { progressEvents, progressRecords } from '../db/schema.ts'
 import { AppError, conflict } from '../http/errors.ts'
+import {
+  assertReasonGiven,
+  assertSameEntry,
+  clubStepDown,
+  entryChecks,
+  isClientIdRace,
+  isFlagged,
+  prerequisiteStatuses,
+  storedByClientId,
+} from './progress-checks.ts'
 import {
   elementContext,
   eventRows,
@@ -27,50 +25,6 @@ import {
   type EventRow,
 } from './progress-records.ts'
 import { athleteInScope } from './scope.ts'
-
-async function prerequisiteStatuses(
-  db: DbOrTx,
-  clubId: string,
-  athleteId: string,
-  elementId: string,
-): Promise<PrerequisiteStatus[]> {
-  const rows = await db
-    .select({
-      requiresElementId: elementPrerequisites.requiresElementId,
-      requiredStepIndex: elementPrerequisites.stepIndex,
-      elementName: elements.name,
-    })
-    .from(elementPrerequisites)
-    .innerJoin(
-      elements,
-      and(
-        eq(elements.clubId, elementPrerequisites.clubId),
-        eq(elements.id, elementPrerequisites.requiresElementId),
-      ),
-    )
-    .where(
-      and(eq(elementPrerequisites.clubId, clubId), eq(elementPrerequisites.elementId, elementId)),
-    )
-  if (rows.length === 0) return []
-  const records = await db
-    .select({ elementId: progressRecords.elementId, stepIndex: progressRecords.stepIndex })
-    .from(progressRecords)
-    .where(
-      and(
-        eq(progressRecords.clubId, clubId),
-        eq(progressRecords.athleteId, athleteId),
-        inArray(
-          progressRecords.elementId,
-          rows.map((r) => r.requiresElementId),
-        ),
-      ),
-    )
-  return rows.map((r) => ({
-    elementName: r.elementName,
-    requiredStepIndex: r.requiredStepIndex,
-    athleteStepIndex: records.find((x) => x.elementId === r.requiresElementId)?.stepIndex ?? null,
-  }))
-}
 
 interface Evaluation {
   element: ElementContext
@@ -109,10 +63,6 @@ async function evaluate(
   const current = replayRecord(
     input.correctsEventId ? events.filter((e) => e.id !== input.correctsEventId) : events,
   )
-  const [club] = await db
-    .select({ stepDown: clubs.lostSkillStepDown })
-    .from(clubs)
-    .where(eq(clubs.id, access.clubId))
   const proposed: ProposedEvent =
     input.kind === 'step'
       ? {
@@ -124,15 +74,14 @@ async function evaluate(
       : input.kind === 'pause'
         ? { kind: 'pause', reason: input.pauseReason!, occurredOn: input.occurredOn }
         : { kind: 'resume', occurredOn: input.occurredOn }
-  const checks = checkEvent(current, proposed, {
-    steps: element.steps.map((s) => ({
-      name: s.name,
-      ...(s.minDays === null ? {} : { minDays: s.minDays }),
-    })),
-    reachedCurrentStepOn: current.stepReachedOn,
-    prerequisites: await prerequisiteStatuses(db, access.clubId, athleteId, input.elementId),
-    lostSkillStepDown: club?.stepDown,
-  })
+  const prerequisites = await prerequisiteStatuses(db, access.clubId, [athleteId], input.elementId)
+  const checks = entryChecks(
+    current,
+    proposed,
+    element,
+    prerequisites.get(athleteId) ?? [],
+    await clubStepDown(db, access.clubId),
+  )
   const proposal = checks.find((c) => c.code === 'lost-skill-step-down')?.proposedStepIndex
   return {
     element,
@@ -155,11 +104,58 @@ export async function previewEvent(
 }
 
 /**
+ * The answer for an entry whose client id is already stored: the same entry gets the stored
+ * event and the record as it stands now; another entry under that id gets 409.
+ */
+async function replayed(
+  db: DbOrTx,
+  access: ClubAccess,
+  athleteId: string,
+  input: ProgressEventInput,
+  stored: EventRow,
+): Promise<EventResult> {
+  assertSameEntry(stored, { ...input, athleteId }, 'clientEventId')
+  const [record] = await db
+    .select()
+    .from(progressRecords)
+    .where(
+      and(
+        eq(progressRecords.clubId, access.clubId),
+        eq(progressRecords.athleteId, athleteId),
+        eq(progressRecords.elementId, input.elementId),
+      ),
+    )
+  return {
+    eventId: stored.id,
+    record: recordView(record, athleteId, input.elementId),
+    checks: stored.checks as CheckResult[],
+    replayed: true,
+  }
+}
+
+/**
  * Appends one event to an athlete's record, with its checks, and rebuilds the record, in one
  * transaction holding the record's row lock. A writer who saw an older state gets 409 with the
- * current record, and nothing of theirs is written.
+ * current record, and nothing of theirs is written. An entry whose `clientEventId` is already
+ * stored is not written again: the answer is the stored event's (`replayed`), also when two
+ * copies arrive at once (the second waits for the record's lock, or meets the unique index).
  */
 export async function recordEvent(
+  db: DbOrTx,
+  access: ClubAccess,
+  athleteId: string,
+  input: ProgressEventInput,
+): Promise<EventResult> {
+  try {
+    return await appendEvent(db, access, athleteId, input)
+  } catch (err) {
+    if (!input.clientEventId || !isClientIdRace(err)) throw err
+    const stored = await storedByClientId(db, access.clubId, [input.clientEventId])
+    return replayed(db, access, athleteId, input, stored.get(input.clientEventId)!)
+  }
+}
+
+async function appendEvent(
   db: DbOrTx,
   access: ClubAccess,
   athleteId: string,
@@ -183,6 +179,12 @@ export async function recordEvent(
         ),
       )
       .for('update')
+    // Read after the lock: a copy that held it has committed by now.
+    if (input.clientEventId) {
+      const stored = await storedByClientId(tx, access.clubId, [input.clientEventId])
+      const row = stored.get(input.clientEventId)
+      if (row) return replayed(tx, access, athleteId, input, row)
+    }
     if ((locked?.lastEventId ?? null) !== input.expectedLastEventId) {
       throw conflict(
         'Someone else has just changed this record. Here is where it stands now; check it and try again.',
@@ -192,31 +194,29 @@ export async function recordEvent(
       )
     }
     const { element, checks, plannedStepIndex } = await evaluate(tx, access, athleteId, input)
-    const needsReason = checks.find((c) => c.severity === 'requires-reason')
-    if (needsReason) {
-      throw new AppError(400, 'reason_required', needsReason.message, [
-        { path: 'skipReason', message: needsReason.message },
-      ])
-    }
-    await tx.insert(progressEvents).values({
-      clubId: access.clubId,
-      athleteId,
-      elementId: input.elementId,
-      kind: input.kind,
-      stepIndex: input.kind === 'step' ? input.stepIndex! : null,
-      stepsVersion: element.stepsVersion,
-      pauseReason: input.kind === 'pause' ? input.pauseReason! : null,
-      plannedStepIndex,
-      occurredOn: input.occurredOn,
-      coachId: access.userId,
-      note: input.note ?? null,
-      skipReason: input.skipReason ?? null,
-      correctsEventId: input.correctsEventId ?? null,
-      checks,
-      // Skips, early passes and unmet prerequisites stay visible on the record.
-      flagged: checks.some((c) => c.code !== 'lost-skill-step-down'),
-    })
+    assertReasonGiven(checks, 'skipReason')
+    const [event] = await tx
+      .insert(progressEvents)
+      .values({
+        clubId: access.clubId,
+        athleteId,
+        elementId: input.elementId,
+        kind: input.kind,
+        stepIndex: input.kind === 'step' ? input.stepIndex! : null,
+        stepsVersion: element.stepsVersion,
+        pauseReason: input.kind === 'pause' ? input.pauseReason! : null,
+        plannedStepIndex,
+        occurredOn: input.occurredOn,
+        coachId: access.userId,
+        note: input.note ?? null,
+        skipReason: input.skipReason ?? null,
+        correctsEventId: input.correctsEventId ?? null,
+        checks,
+        flagged: isFlagged(checks),
+        clientEventId: input.clientEventId ?? null,
+      })
+      .returning({ id: progressEvents.id })
     const record = await recompute(tx, access.clubId, athleteId, element)
-    return { record, checks }
+    return { eventId: event!.id, record, checks, replayed: false }
   })
 }

@@ -22,13 +22,13 @@ import { notFound } from '../http/errors.ts'
  * here imports the catalogue, which calls in after a steps change.
  */
 export type EventRow = typeof progressEvents.$inferSelect
-type RecordRow = typeof progressRecords.$inferSelect
+export type RecordRow = typeof progressRecords.$inferSelect
 
 export interface ElementContext {
   id: string
   name: string
   stepsVersion: number
-  steps: { name: string; modality: string; minDays: number | null }[]
+  steps: { name: string; modality: string; criterion: string; minDays: number | null }[]
   maps: Map<number, number[]>
 }
 
@@ -46,6 +46,7 @@ export async function elementContext(
     .select({
       name: elementSteps.name,
       modality: elementSteps.modality,
+      criterion: elementSteps.criterion,
       minDays: elementSteps.minDays,
     })
     .from(elementSteps)
@@ -152,6 +153,24 @@ export function storedState(record: ProgressRecord) {
   }
 }
 
+/** The stored columns of a record (but its key) replayed from all of its event rows. */
+export function rebuiltRecord(
+  rows: (ReplayRow & { flagged: boolean })[],
+  element: Pick<ElementContext, 'stepsVersion' | 'maps'>,
+) {
+  const record = replayRecord(rows.map((r) => toDomainEvent(r, element)))
+  const newest = [...rows].sort(
+    (a, b) => b.recordedAt.getTime() - a.recordedAt.getTime() || b.id.localeCompare(a.id),
+  )[0]
+  const effective = new Set(record.history.map((e) => e.id))
+  return {
+    ...storedState(record),
+    lastEventId: newest?.id ?? null,
+    flagged: rows.some((r) => r.flagged && effective.has(r.id)),
+    updatedAt: new Date(),
+  }
+}
+
 /** Rebuilds the stored state of one record from its events. */
 export async function recompute(
   db: DbOrTx,
@@ -160,17 +179,7 @@ export async function recompute(
   element: ElementContext,
 ) {
   const rows = await eventRows(db, clubId, athleteId, element.id)
-  const record = replayRecord(rows.map((r) => toDomainEvent(r, element)))
-  const newest = [...rows].sort(
-    (a, b) => b.recordedAt.getTime() - a.recordedAt.getTime() || b.id.localeCompare(a.id),
-  )[0]
-  const effective = new Set(record.history.map((e) => e.id))
-  const values = {
-    ...storedState(record),
-    lastEventId: newest?.id ?? null,
-    flagged: rows.some((r) => r.flagged && effective.has(r.id)),
-    updatedAt: new Date(),
-  }
+  const values = rebuiltRecord(rows, element)
   const [saved] = await db
     .insert(progressRecords)
     .values({ clubId, athleteId, elementId: element.id, ...values })
