@@ -7,6 +7,7 @@ import { clipRoutes } from './clips.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
+import { plannerRoutes } from './planner.ts'
 import { reportPdfRoutes } from './report-pdfs.ts'
 import { squadRoutes } from './squads.ts'
 import { visitRoutes } from './visits.ts'
@@ -24,5 +25,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...archiveRoutes(ctx),
     ...visitRoutes(ctx),
     ...clipRoutes(ctx),
+    ...plannerRoutes(ctx),
   ]
 }

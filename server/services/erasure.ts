@@ -42,6 +42,8 @@ import {
   visitSquads,
   visits,
 } from '../db/schema-visits.ts'
+import { plannerStations, sessionPlans } from '../db/schema-planner.ts'
+import { removeAthleteFromPlans } from './planner-plans.ts'
 import { AppError, notFound } from '../http/errors.ts'
 
 const mismatch = (message: string) =>
@@ -90,6 +92,7 @@ export async function eraseAthlete(
       .delete(athletes)
       .where(and(eq(athletes.clubId, access.clubId), eq(athletes.id, athleteId)))
     await unlinkFromAudits(tx, access.clubId, athleteId)
+    await removeAthleteFromPlans(tx, access.clubId, athleteId)
     // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
     await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
     await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
@@ -142,6 +145,8 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
       .from(clips)
       .where(eq(clips.clubId, clubId))
     for (const table of [
+      sessionPlans,
+      plannerStations,
       recommendationEvents,
       recommendations,
       clipReviews,
