@@ -53,9 +53,11 @@ export function explainInfeasible(model: PlanModel): string[] {
       model.coaches === 0
         ? 'no coach is present'
         : `${count(model.coaches, 'coach is', 'coaches are')} present`
-    if (spottedOnly.length > spottedTurns * model.blocks) {
+    const need = `${count(spottedOnly.length, 'athlete needs', 'athletes need')} a spotter`
+    if (model.coaches === 0) reasons.push(`${need} but ${coaches}.`)
+    else if (spottedOnly.length > spottedTurns * model.blocks) {
       reasons.push(
-        `${count(spottedOnly.length, 'athlete needs', 'athletes need')} a spotter but ${coaches}: the spotted stations give at most ${spottedTurns * model.blocks} turns in this session.`,
+        `${need} but ${coaches}: the spotted stations give at most ${spottedTurns * model.blocks} turns in this session.`,
       )
     }
   }
@@ -63,7 +65,7 @@ export function explainInfeasible(model: PlanModel): string[] {
     model.blocks * model.stations.reduce((sum, s) => sum + stationBlockTurns(model, s), 0)
   if (model.athletes.length > turns) {
     reasons.push(
-      `${model.athletes.length} athletes are present but the stations give only ${turns} turns in ${model.minutes} minutes.`,
+      `${count(model.athletes.length, 'athlete is', 'athletes are')} present but the stations give only ${turns} turns in ${model.minutes} minutes.`,
     )
   }
   return reasons
