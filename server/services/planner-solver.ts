@@ -11,9 +11,17 @@ let loading: Promise<Highs> | null = null
 
 /** The process's HiGHS runtime, loaded on first use. */
 export function loadHighs(): Promise<Highs> {
-  loading ??= import('highs').then((m) => m.default())
+  loading ??= import('highs').then((m) => {
+    // The package's ESM entry exports the loader as default; typed through its CommonJS face
+    // (the compiled server's module setting), the default is the module with the loader inside.
+    const mod = m as unknown as { default: Loader | { default: Loader } }
+    const loader = typeof mod.default === 'function' ? mod.default : mod.default.default
+    return loader()
+  })
   return loading
 }
+
+type Loader = () => Promise<Highs>
 
 export interface SolvedPlan {
   placements: Placement[]

@@ -1,0 +1,83 @@
+import { expect, test } from '@playwright/test'
+import { expectNoSeriousAxeViolations, screenshot } from './support.ts'
+import { signIn } from './support-auth.ts'
+
+test('a coach plans a session for a demo squad on a tablet, prints it, saves it and records it', async ({
+  browser,
+}) => {
+  const context = await browser.newContext({
+    viewport: { width: 820, height: 1180 },
+    hasTouch: true,
+  })
+  const page = await context.newPage()
+  await signIn(page, 'coach@demo.example')
+  await page
+    .getByRole('navigation', { name: 'Main' })
+    .first()
+    .getByRole('link', { name: 'Plan a session' })
+    .click()
+  await expect(page.getByRole('heading', { name: 'Session planner' })).toBeVisible()
+  await expect(page.getByText('Trampoline 1').first()).toBeVisible()
+  await expectNoSeriousAxeViolations(page)
+
+  await page.getByLabel('Squad', { exact: true }).first().click()
+  await page.locator('.n-base-select-option:visible', { hasText: 'Kites' }).first().click()
+  await expect(page.getByRole('checkbox').first()).toBeVisible()
+  // The demo's stations: choose them all, the default focus being the audit's forward gaps.
+  for (const name of [
+    'Tumble track',
+    'Mini-trampoline into the pit',
+    'Floor drills corner',
+    'Twisting belt',
+    'Coach spot on the floor',
+    'Landing mat strip',
+    'Floor, solo',
+    'Trampoline 2',
+  ]) {
+    const box = page.getByRole('checkbox', { name })
+    if (!(await box.isChecked())) await box.check()
+  }
+  await page.getByRole('button', { name: 'Plan the session' }).click()
+  await expect(page.getByText(/qualified coaches/).first()).toBeVisible()
+  await expect(page.getByRole('table').first()).toBeVisible()
+  await expect(page.getByText(/Focus: the largest forward gaps/)).toBeVisible()
+  const total = page.getByText(/^Turns in all$/).locator('xpath=following-sibling::dd')
+  const before = await total.textContent()
+  await screenshot(page, 'planner-plan-tablet')
+  await expectNoSeriousAxeViolations(page)
+
+  // Move the first athlete out of block 1: the figures change at once.
+  await page.getByLabel('Athlete to move').click()
+  await page.keyboard.press('Enter')
+  await page.getByLabel('Move to station').click()
+  await page
+    .locator('.n-base-select-option:visible', { hasText: 'Not placed in this block' })
+    .click()
+  await page.getByRole('button', { name: 'Move', exact: true }).click()
+  await expect(page.getByText(/moved; the figures are updated/)).toBeVisible()
+  await expect(total).not.toHaveText(before ?? '')
+
+  await page.getByRole('button', { name: 'Save the plan' }).click()
+  await expect(page).toHaveURL(/\/planner\/plans\//)
+  await expect(page.getByRole('heading', { name: 'Session plan' })).toBeVisible()
+  await expect(page.getByRole('table').first()).toBeVisible()
+  await expectNoSeriousAxeViolations(page)
+
+  // Printed: one page on A4, one on letter.
+  await page.emulateMedia({ media: 'print' })
+  await screenshot(page, 'planner-print')
+  for (const format of ['A4', 'Letter'] as const) {
+    const pdf = await page.pdf({ format, preferCSSPageSize: false })
+    const pages = pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []
+    expect(pages.length, `${format} pages`).toBe(1)
+  }
+  await page.emulateMedia({ media: 'screen' })
+
+  // After the session: tick the first athlete's next step and record it.
+  const tick = page.getByRole('checkbox', { name: /passed .* step \d+/ }).first()
+  await tick.check()
+  await page.getByRole('button', { name: 'Record the session' }).click()
+  await expect(page.getByText(/Session recorded: 1 step passed/)).toBeVisible()
+  await expect(page.getByText(/Recorded on/)).toBeVisible()
+  await context.close()
+})
