@@ -117,6 +117,41 @@ async function gapFocus(db: DbOrTx, clubId: string, squadId: string) {
 }
 
 /**
+ * For athletes the audit lists no gap for (it predates their progress, or they have none): the
+ * forward elements they have started and not paused, those furthest behind first.
+ */
+async function forwardInProgress(db: DbOrTx, clubId: string, athleteIds: string[]) {
+  const rows = await db
+    .select({
+      athleteId: progressRecords.athleteId,
+      elementId: progressRecords.elementId,
+      stepIndex: progressRecords.stepIndex,
+    })
+    .from(progressRecords)
+    .innerJoin(
+      elements,
+      and(eq(elements.clubId, progressRecords.clubId), eq(elements.id, progressRecords.elementId)),
+    )
+    .where(
+      and(
+        eq(progressRecords.clubId, clubId),
+        inArray(progressRecords.athleteId, athleteIds),
+        eq(elements.direction, 'forward'),
+        eq(progressRecords.paused, false),
+      ),
+    )
+    .orderBy(asc(progressRecords.stepIndex), asc(elements.name))
+  const out = new Map<string, string[]>()
+  for (const r of rows) {
+    if (r.stepIndex === null) continue
+    const list = out.get(r.athleteId) ?? []
+    if (list.length < gapsPerAthlete) list.push(r.elementId)
+    out.set(r.athleteId, list)
+  }
+  return out
+}
+
+/**
  * Builds the plan's model from the request: the athletes present (of the squad, in the coach's
  * reach), their step on each focus element and the steps around it, the chosen stations.
  */
@@ -171,6 +206,12 @@ export async function buildPlanModel(
     }
     focusSource = `the largest forward gaps in the audit as of ${gaps.asOf}`
     focus = gaps.byAthlete
+    const without = people.filter((p) => !focus.get(p.id)?.length).map((p) => p.id)
+    if (without.length) {
+      for (const [athleteId, ids] of await forwardInProgress(db, clubId, without))
+        focus.set(athleteId, ids)
+      focusSource += '; for athletes without a gap there, the forward elements they are on'
+    }
   }
   const elementIds = [...new Set([...focus.values()].flat())]
   const model: PlanModel = {
