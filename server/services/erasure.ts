@@ -54,7 +54,7 @@ const mismatch = (message: string) =>
  * then the athlete. Answers the keys of the clip objects, which the caller deletes from the
  * store once this has committed. Stored audits keep their figures; where they listed the
  * athlete, the athlete's id is replaced by a new one that nothing else holds, and reports show
- * no name for it; PDF reports already drawn are deleted.
+ * no name for it; PDF reports already drawn are deleted; saved session plans drop the athlete.
  */
 export async function eraseAthlete(
   db: DbOrTx,

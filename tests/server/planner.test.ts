@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { elementSteps, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
+import { eraseAthlete } from '../../server/services/erasure.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
@@ -167,19 +168,17 @@ describe('POST /api/clubs/:clubId/planner/plan', () => {
   })
 
   it('refuses a coach a squad not theirs', async () => {
-    const res = await coach
-      .post(`${base}/planner/plan`)
-      .send(
-        request({
-          squadId: (
-            await createSquad(database.db, fx.club.id, {
-              name: 'Squad C',
-              level: 'junior',
-              discipline: 'tumbling',
-            })
-          ).id,
-        }),
-      )
+    const res = await coach.post(`${base}/planner/plan`).send(
+      request({
+        squadId: (
+          await createSquad(database.db, fx.club.id, {
+            name: 'Squad C',
+            level: 'junior',
+            discipline: 'tumbling',
+          })
+        ).id,
+      }),
+    )
     expect(res.status).toBe(403)
   })
 
@@ -263,5 +262,32 @@ describe('saved plans and their outcome', () => {
       .where(and(eq(progressRecords.athleteId, fresh), eq(progressRecords.elementId, frontTuck)))
     expect(rows.filter((r) => r.lastEventId !== null)).toEqual([])
     expect((await coach.get(`${base}/plans/${plan.id}`)).body.recordedAt).toBeNull()
+  })
+})
+
+describe('erasing an athlete for good', () => {
+  it('takes them out of every saved plan, leaving the rest of the squad', async () => {
+    const gone = await person(fx.squad.id, 'Leaving')
+    const plan = await coach
+      .post(`${base}/planner/plan`)
+      .send(request({ athleteIds: [fresh, gone] }))
+    const saved = await coach
+      .post(`${base}/plans`)
+      .send({
+        squadId: fx.squad.id,
+        sessionDate: addDays(0),
+        model: plan.body.model,
+        placements: plan.body.placements,
+      })
+      .expect(201)
+    const director = {
+      clubId: fx.club.id,
+      userId: fx.people.director.id,
+      role: 'director' as const,
+    }
+    await eraseAthlete(database.db, director, gone, { confirmName: 'Ada Leaving' })
+    const after = await coach.get(`${base}/plans/${saved.body.id}`).expect(200)
+    expect(JSON.stringify(after.body)).not.toContain(gone)
+    expect(after.body.model.athletes.map((a: { id: string }) => a.id)).toEqual([fresh])
   })
 })
