@@ -1,4 +1,5 @@
 import type { Highs } from 'highs'
+import { blockBound } from '../../shared/domain/planner/bound.ts'
 import { pairs, planLp, readCounts, readSpotted } from '../../shared/domain/planner/lp.ts'
 import { scheduleBlocks } from '../../shared/domain/planner/schedule.ts'
 import { shareTurns } from '../../shared/domain/planner/turns.ts'
@@ -43,20 +44,31 @@ function statusName(highs: Highs, code: number): string {
   return entry?.[0] ?? 'unknown'
 }
 
-function runStage(highs: Highs, lp: string, timeLimit: number): StageResult {
+/**
+ * One stage, started from a feasible plan (`start`, by column name; columns it does not name
+ * start at 0, which the first stage's all-zero plan satisfies), so that a stage cut short by its
+ * time limit on a busy machine still answers a plan. Null only if HiGHS holds none at all.
+ */
+function runStage(
+  highs: Highs,
+  lp: string,
+  timeLimit: number,
+  start?: ReadonlyMap<string, number>,
+): StageResult | null {
   return highs.withModel({ format: 'lp', data: lp }, (model) => {
     model.options.set({ output_flag: false, time_limit: timeLimit, mip_rel_gap: 1e-6 })
+    const { numCols } = model.getDimensions()
+    const names = Array.from({ length: numCols }, (_, i) => model.getColName(i))
+    model.setSolution({ colValue: names.map((name) => start?.get(name) ?? 0) })
     model.run()
     const status = statusName(highs, model.getModelStatus())
-    const primal = Number(model.info.get('primal_solution_status'))
-    if (primal !== 2) throw new Error(`The planner's solver found no plan (${status}).`)
+    if (Number(model.info.get('primal_solution_status')) !== 2) return null
     const { colValue } = model.getSolution()
     const values = new Map<string, number>()
-    for (let i = 0; i < colValue.length; i++) values.set(model.getColName(i), colValue[i]!)
-    const objective = model.getObjectiveValue()
+    names.forEach((name, i) => values.set(name, colValue[i]!))
     return {
       status,
-      objective,
+      objective: model.getObjectiveValue(),
       values,
       gap: Number(model.info.get('mip_gap')),
       bound: Number(model.info.get('mip_dual_bound')),
@@ -82,8 +94,11 @@ export async function solvePlan(model: PlanModel, timeLimitSeconds = 0.4): Promi
   const highs = await loadHighs()
   const first = runStage(highs, planLp(model), timeLimitSeconds)
   // A time-limited first stage may stop on a fractional bound; its incumbent is whole.
-  const minTurns = Math.max(0, Math.floor(first.objective + 1e-6))
-  const second = runStage(highs, planLp(model, minTurns), timeLimitSeconds)
+  const minTurns = first ? Math.max(0, Math.floor(first.objective + 1e-6)) : 0
+  const second =
+    runStage(highs, planLp(model, minTurns), timeLimitSeconds, first?.values) ??
+    (first && { ...first, status: 'timeLimit', bound: blockBound(model) })
+  if (!second) throw new Error('The planner’s solver found no plan in its time.')
   const placements = shareTurns(
     model,
     scheduleBlocks(model, readCounts(model, second.values), readSpotted(model, second.values)),

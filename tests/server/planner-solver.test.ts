@@ -76,6 +76,23 @@ describe('solvePlan', () => {
     expect(explainInfeasible(m)).toEqual([])
   })
 
+  it('still answers a plan within the rules when the solver is cut short', async () => {
+    // A time limit far too short to prove anything: the stages start from a plan with no turns
+    // and keep the best they reach, and the gap says how far from the bound it may be.
+    const m = model({
+      minutes: 90,
+      blocks: 6,
+      changeoverSeconds: 60,
+      coaches: 1,
+      stations: [station(1, 'trampoline', 1, 45), station(2, 'hand-spot', 1, 30, true)],
+      athletes: Array.from({ length: 30 }, (_, i) => athlete(i + 1, ['trampoline', 'hand-spot'])),
+    })
+    const solved = await solvePlan(m, 0.000_1)
+    const figures = checkRules(m, solved.placements)
+    expect(solved.report.bound).toBeGreaterThanOrEqual(figures.totalTurns)
+    expect(solved.report.gap).toBeGreaterThanOrEqual(0)
+  })
+
   it('puts spotted steps only where and when a coach spots', async () => {
     // 20 min, 2 blocks of 600 s. A hand-spot station, one at a time, 30 s: 20 turns a block,
     // 40 in all, for 6 athletes who need the spot: 6 each at best (6 × 6 = 36 ≤ 40 < 42). A
