@@ -67,6 +67,8 @@ test('a coach plans a session for a demo squad on a tablet, prints it, saves it 
   await expect(page).toHaveURL(/\/planner\/plans\//)
   await expect(page.getByRole('heading', { name: 'Session plan' })).toBeVisible()
   await expect(page.getByRole('table').first()).toBeVisible()
+  // A notice fading in or out is half transparent: scan once it has gone.
+  await expect(page.getByText(/Plan saved for/)).toBeHidden()
   await expectNoSeriousAxeViolations(page)
 
   // Printed: one page on A4, one on letter.
