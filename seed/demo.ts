@@ -19,6 +19,7 @@ import { demoHistory } from './demo-progress.ts'
 import { demoClips } from './demo-clips.ts'
 import { demoPastVisit } from './demo-past-visit.ts'
 import { demoVisit } from './demo-visits.ts'
+import { demoStationsFor } from './demo-stations.ts'
 import { familyNames, givenNames } from './names.ts'
 
 /** The one password of every demo sign-in; shown by `npm start` and in the README. */
@@ -154,6 +155,7 @@ export async function seedDemo(db: Db, options: SeedOptions = {}) {
       await createElement(tx, { clubId: club.id, userId: director, role: 'director' }, element)
     }
     const history = await demoProgress(tx, club.id, today, rng, userIds, squadIds)
+    await demoStationsFor(tx, club.id)
     await demoVisit(tx, {
       clubId: club.id,
       today,

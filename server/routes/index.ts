@@ -8,6 +8,7 @@ import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
 import { progressBatchRoutes } from './progress-batch.ts'
+import { plannerRoutes } from './planner.ts'
 import { reportPdfRoutes } from './report-pdfs.ts'
 import { squadRoutes } from './squads.ts'
 import { visitRoutes } from './visits.ts'
@@ -26,5 +27,6 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...archiveRoutes(ctx),
     ...visitRoutes(ctx),
     ...clipRoutes(ctx),
+    ...plannerRoutes(ctx),
   ]
 }

@@ -42,6 +42,8 @@ import {
   visitSquads,
   visits,
 } from '../db/schema-visits.ts'
+import { plannerStations, sessionPlans } from '../db/schema-planner.ts'
+import { removeAthleteFromPlans } from './planner-plans.ts'
 import { AppError, notFound } from '../http/errors.ts'
 
 const mismatch = (message: string) =>
@@ -52,7 +54,7 @@ const mismatch = (message: string) =>
  * then the athlete. Answers the keys of the clip objects, which the caller deletes from the
  * store once this has committed. Stored audits keep their figures; where they listed the
  * athlete, the athlete's id is replaced by a new one that nothing else holds, and reports show
- * no name for it; PDF reports already drawn are deleted.
+ * no name for it; PDF reports already drawn are deleted; saved session plans drop the athlete.
  */
 export async function eraseAthlete(
   db: DbOrTx,
@@ -90,6 +92,7 @@ export async function eraseAthlete(
       .delete(athletes)
       .where(and(eq(athletes.clubId, access.clubId), eq(athletes.id, athleteId)))
     await unlinkFromAudits(tx, access.clubId, athleteId)
+    await removeAthleteFromPlans(tx, access.clubId, athleteId)
     // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
     await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
     await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
@@ -142,6 +145,8 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
       .from(clips)
       .where(eq(clips.clubId, clubId))
     for (const table of [
+      sessionPlans,
+      plannerStations,
       recommendationEvents,
       recommendations,
       clipReviews,

@@ -2,6 +2,7 @@ import { createRouter, createWebHistory, type RouteRecordRaw } from 'vue-router'
 import type { Role } from '@shared/domain/club'
 import { useSessionStore } from '@/stores/session'
 import { auditRoutes } from './auditRoutes'
+import { plannerRoutes } from './plannerRoutes'
 import { progressRoutes } from './progressRoutes'
 
 declare module 'vue-router' {
@@ -132,6 +133,7 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Your visit', roles: ['clinician'] },
   },
   ...progressRoutes,
+  ...plannerRoutes,
   ...auditRoutes,
   {
     path: '/:pathMatch(.*)*',

@@ -1,6 +1,7 @@
 import type { RouteLocationRaw } from 'vue-router'
 import type { Me, MembershipView } from '@shared/schemas/auth'
 import { auditNavItems } from './auditRoutes'
+import { plannerNavItems } from './plannerRoutes'
 import { progressNavItems } from './progressRoutes'
 
 export interface NavItem {
@@ -27,7 +28,11 @@ export function navigationItems(me: Me | null, membership: MembershipView | null
   if (membership.role !== 'board') {
     items.push({ key: 'catalogue', label: 'Catalogue', to: { name: 'catalogue' } })
   }
-  items.push(...progressNavItems(membership.role), ...auditNavItems(membership.role))
+  items.push(
+    ...progressNavItems(membership.role),
+    ...plannerNavItems(membership.role),
+    ...auditNavItems(membership.role),
+  )
   if (membership.role === 'director') {
     items.push({ key: 'visits', label: 'Visits', to: { name: 'visits' } })
     items.push({ key: 'members', label: 'Members', to: { name: 'members' } })

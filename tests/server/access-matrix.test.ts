@@ -15,6 +15,8 @@ import { processReportPdf, submitReportPdf } from '../../server/services/report-
 import { createClub } from '../../server/services/clubs.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
 import { createSquad } from '../../server/services/squads.ts'
+import { createStation } from '../../server/services/planner.ts'
+import { savePlan } from '../../server/services/planner-plans.ts'
 import { cancelVisit, createVisit, listVisits } from '../../server/services/visits.ts'
 import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -185,6 +187,35 @@ async function pendingInvitation(f: Fixture) {
     .post(`/api/clubs/${f.club.id}/invitations`)
     .send({ email: `i-${unique()}@test.example`, role: 'board' })
   return res.body.id as string
+}
+
+const stationBody = () => ({
+  name: `Station ${unique()}`,
+  modality: 'trampoline',
+  capacity: 2,
+  secondsPerTurn: 30,
+  needsSpotter: false,
+})
+const throwawayStation = (f: Fixture) => createStation(f.db.db, f.club.id, stationBody())
+async function planBody(f: Fixture) {
+  const station = await throwawayStation(f)
+  return {
+    squadId: f.squad.id,
+    sessionDate: addDays(0),
+    model: {
+      minutes: 20,
+      blocks: 2,
+      changeoverSeconds: 60,
+      coaches: 1,
+      stations: [station],
+      athletes: [{ id: await athleteInSquad(f), name: 'Matrix athlete', options: [] }],
+    },
+    placements: [],
+  }
+}
+async function throwawayPlan(f: Fixture) {
+  const plan = await savePlan(f.db.db, directorAccess(f), await planBody(f))
+  return plan.id
 }
 
 const matrix: Record<string, Row> = {
@@ -621,6 +652,69 @@ const matrix: Record<string, Row> = {
     allow: ['director', 'board'],
     ok: 200,
     request: async () => ({ path: '/board-summary' }),
+  },
+  'GET /planner/stations': {
+    allow: writers,
+    ok: 200,
+    request: async () => ({ path: '/planner/stations' }),
+  },
+  'POST /planner/stations': {
+    allow: writers,
+    ok: 201,
+    request: async () => ({ path: '/planner/stations', body: stationBody() }),
+  },
+  'PUT /planner/stations/:stationId': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/planner/stations/${(await throwawayStation(f)).id}`,
+      body: stationBody(),
+    }),
+  },
+  'DELETE /planner/stations/:stationId': {
+    allow: writers,
+    ok: 204,
+    request: async (f) => ({ path: `/planner/stations/${(await throwawayStation(f)).id}` }),
+  },
+  'POST /planner/plan': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: '/planner/plan',
+      body: {
+        squadId: f.squad.id,
+        athleteIds: [await athleteInSquad(f)],
+        minutes: 20,
+        blocks: 2,
+        coaches: 1,
+        stationIds: [(await throwawayStation(f)).id],
+        focus: { mode: 'elements', elementIds: [await anyElement(f)] },
+      },
+    }),
+  },
+  'GET /plans': { allow: writers, ok: 200, request: async () => ({ path: '/plans' }) },
+  'POST /plans': {
+    allow: writers,
+    ok: 201,
+    request: async (f) => ({ path: '/plans', body: await planBody(f) }),
+  },
+  'GET /plans/:planId': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({ path: `/plans/${await throwawayPlan(f)}` }),
+  },
+  'PUT /plans/:planId': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({ path: `/plans/${await throwawayPlan(f)}`, body: await planBody(f) }),
+  },
+  'POST /plans/:planId/outcome': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/plans/${await throwawayPlan(f)}/outcome`,
+      body: { occurredOn: addDays(0), passed: [] },
+    }),
   },
 }
 

@@ -68,6 +68,8 @@ const leftOut: Record<string, string> = {
   club_archive_files: 'the archives themselves',
   report_pdfs: 'PDF reports drawn for one person for an hour; the audits are in the archive',
   report_pdf_files: 'PDF reports drawn for one person for an hour; the audits are in the archive',
+  planner_stations: 'the gym set-up the session planner reuses: not yet in the archive',
+  session_plans: 'session plans: not yet in the archive; the progress they recorded is',
 }
 
 // A small club with known data and a second club (tests/support/archive-club.ts).
