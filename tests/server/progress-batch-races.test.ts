@@ -83,6 +83,65 @@ const firstStep = {
 }
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
+/**
+ * A steps change (a new first step in front of the old ones: old step i becomes new step i + 1)
+ * applied in a transaction that keeps the element's lock until `release` is called.
+ */
+async function holdStepsChange(elementId: string) {
+  const before = await getElement(database.db, fx.club.id, elementId)
+  const update = {
+    stepsVersion: before.stepsVersion,
+    steps: [
+      { name: 'Shape drills', modality: 'floor-drill', criterion: 'Tuck held 5 s.' },
+      ...before.steps.map((s) => ({
+        name: s.name,
+        modality: s.modality,
+        criterion: s.criterion,
+        ...(s.minDays === null ? {} : { minDays: s.minDays }),
+      })),
+    ],
+    mapping: before.steps.map((_, i) => i + 1),
+  }
+  let release!: () => void
+  const gate = new Promise<void>((resolve) => (release = resolve))
+  let changed!: () => void
+  const applied = new Promise<void>((resolve) => (changed = resolve))
+  const access = { clubId: fx.club.id, userId: fx.people.director.id, role: 'director' as const }
+  const stepsChange = database.db.transaction(async (tx) => {
+    await replaceSteps(tx, access, elementId, update as Parameters<typeof replaceSteps>[3])
+    changed()
+    await gate
+  })
+  await applied
+  return { before, release, stepsChange }
+}
+
+/** The stored record of one athlete on one element, and the replay of its events now. */
+async function storedAndReplayed(athleteId: string, elementId: string) {
+  const element = await elementContext(database.db, fx.club.id, elementId)
+  const rows = await database.db
+    .select()
+    .from(progressEvents)
+    .where(
+      and(
+        eq(progressEvents.clubId, fx.club.id),
+        eq(progressEvents.athleteId, athleteId),
+        eq(progressEvents.elementId, elementId),
+      ),
+    )
+  const [stored] = await database.db
+    .select()
+    .from(progressRecords)
+    .where(
+      and(
+        eq(progressRecords.clubId, fx.club.id),
+        eq(progressRecords.athleteId, athleteId),
+        eq(progressRecords.elementId, elementId),
+      ),
+    )
+  return { stored: stored!, replayed: replayRecord(rows.map((r) => toDomainEvent(r, element))) }
+}
+
 describe('a squad batch racing a steps change', () => {
   it('waits for the change and records the step in the new steps, as a replay reads it', async () => {
     const { squad, athletes } = await newSquad(1)
@@ -92,33 +151,7 @@ describe('a squad batch racing a steps change', () => {
       .post(single(athleteId))
       .send({ ...firstStep, elementId })
       .expect(201)
-    const before = await getElement(database.db, fx.club.id, elementId)
-    // A new first step in front of the old ones: old step i becomes new step i + 1.
-    const update = {
-      stepsVersion: before.stepsVersion,
-      steps: [
-        { name: 'Shape drills', modality: 'floor-drill', criterion: 'Tuck held 5 s.' },
-        ...before.steps.map((s) => ({
-          name: s.name,
-          modality: s.modality,
-          criterion: s.criterion,
-          ...(s.minDays === null ? {} : { minDays: s.minDays }),
-        })),
-      ],
-      mapping: before.steps.map((_, i) => i + 1),
-    }
-    let release!: () => void
-    const gate = new Promise<void>((resolve) => (release = resolve))
-    let changed!: () => void
-    const applied = new Promise<void>((resolve) => (changed = resolve))
-    const access = { clubId: fx.club.id, userId: fx.people.director.id, role: 'director' as const }
-    // The steps change holds the element's lock until the gate opens.
-    const stepsChange = database.db.transaction(async (tx) => {
-      await replaceSteps(tx, access, elementId, update as Parameters<typeof replaceSteps>[3])
-      changed()
-      await gate
-    })
-    await applied
+    const { before, release, stepsChange } = await holdStepsChange(elementId)
     const saving = coach
       .post(batch(squad.id))
       .send({
@@ -147,24 +180,34 @@ describe('a squad batch racing a steps change', () => {
       )
     expect(event!.stepsVersion).toBe(before.stepsVersion + 1)
     expect(event!.stepIndex).toBe(2)
-    const element = await elementContext(database.db, fx.club.id, elementId)
-    const rows = await database.db
-      .select()
-      .from(progressEvents)
-      .where(and(eq(progressEvents.clubId, fx.club.id), eq(progressEvents.athleteId, athleteId)))
-    const replayed = replayRecord(rows.map((r) => toDomainEvent(r, element)))
-    const [stored] = await database.db
-      .select()
-      .from(progressRecords)
-      .where(
-        and(
-          eq(progressRecords.clubId, fx.club.id),
-          eq(progressRecords.athleteId, athleteId),
-          eq(progressRecords.elementId, elementId),
-        ),
-      )
-    expect(stored!.stepIndex).toBe(replayed.stepIndex)
+    const { stored, replayed } = await storedAndReplayed(athleteId, elementId)
+    expect(stored.stepIndex).toBe(replayed.stepIndex)
     expect(replayed.stepIndex).toBe(2)
+  })
+
+  it('a single entry for an athlete new to the element waits for the change too', async () => {
+    const { athletes } = await newSquad(2)
+    const [onIt, newcomer] = athletes.map((a) => a.id)
+    const elementId = tucks.backTuck
+    // Someone on the element already, so the change keeps a mapping of the old steps.
+    await coach
+      .post(single(onIt!))
+      .send({ ...firstStep, elementId })
+      .expect(201)
+    const { release, stepsChange } = await holdStepsChange(elementId)
+    const saving = coach
+      .post(single(newcomer!))
+      .send({ ...firstStep, elementId, occurredOn: '2026-11-20' })
+      .then((res) => res)
+    await pause(400)
+    release()
+    await stepsChange
+    expect((await saving).status).toBe(201)
+    // The first step named after the change is the new first step (hand-worked): the stored
+    // record and a replay of the events agree on it.
+    const { stored, replayed } = await storedAndReplayed(newcomer!, elementId)
+    expect(replayed.stepIndex).toBe(0)
+    expect(stored.stepIndex).toBe(replayed.stepIndex)
   })
 
   it('two batches naming the same athletes in opposite orders: one saves, one is told the record moved', async () => {
