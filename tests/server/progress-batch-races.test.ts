@@ -7,7 +7,9 @@ import { progressEvents, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { getElement, replaceSteps } from '../../server/services/catalogue.ts'
 import { elementContext, toDomainEvent } from '../../server/services/progress-records.ts'
+import { saveBatch } from '../../server/services/progress-batch.ts'
 import { createSquad } from '../../server/services/squads.ts'
+import { batchInputSchema } from '../../shared/schemas/progress-batch.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
@@ -325,6 +327,35 @@ describe('a squad batch’s input', () => {
     expect(changed.body.error.code).toBe('client_event_reused')
     expect(changed.body.error.issues[0].path).toBe('entries.0.clientEventId')
     expect(await eventsOf([athletes[0]!.id])).toBe(1)
+  })
+
+  it('stamps its events with the database’s time, as a single entry’s', async () => {
+    const { squad, athletes } = await newSquad(1)
+    const access = { clubId: fx.club.id, userId: fx.people.coach.id, role: 'coach' as const }
+    const input = batchInputSchema.parse({
+      elementId: tucks.backTuck,
+      occurredOn: '2026-11-02',
+      entries: [entryFor(athletes[0]!.id)],
+    })
+    // In one transaction the database's now() is its start: later than it, the server's clock.
+    const { started, recordedAt } = await database.db.transaction(async (tx) => {
+      const [row] = await tx
+        .select({ ms: sql<string>`floor(extract(epoch from now()) * 1000)::bigint` })
+        .from(sql`(select 1) as one`)
+      await pause(50)
+      const result = await saveBatch(tx, access, squad.id, input)
+      const [event] = await tx
+        .select({ recordedAt: progressEvents.recordedAt })
+        .from(progressEvents)
+        .where(
+          and(
+            eq(progressEvents.clubId, fx.club.id),
+            eq(progressEvents.id, result.results[0]!.eventId),
+          ),
+        )
+      return { started: Number(row!.ms), recordedAt: event!.recordedAt }
+    })
+    expect(Math.abs(recordedAt.getTime() - started)).toBeLessThanOrEqual(1)
   })
 
   it('keeps a client id unique only where one is given (a partial index)', async () => {
