@@ -410,7 +410,10 @@ export const progressEvents = pgTable(
   },
   (t) => [
     primaryKey({ columns: [t.clubId, t.id] }),
-    uniqueIndex('progress_events_client_event_idx').on(t.clubId, t.clientEventId),
+    // Partial: entries without a client id (most of the history) are not indexed at all.
+    uniqueIndex('progress_events_client_event_idx')
+      .on(t.clubId, t.clientEventId)
+      .where(sql`${t.clientEventId} IS NOT NULL`),
     foreignKey({
       columns: [t.clubId, t.athleteId],
       foreignColumns: [athletes.clubId, athletes.id],

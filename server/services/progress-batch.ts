@@ -11,7 +11,7 @@ import type { z } from 'zod'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, elements, progressEvents, progressRecords } from '../db/schema.ts'
-import { AppError, conflict } from '../http/errors.ts'
+import { AppError } from '../http/errors.ts'
 import {
   assertReasonGiven,
   assertSameEntry,
@@ -24,6 +24,7 @@ import {
 } from './progress-checks.ts'
 import {
   elementContext,
+  lockElements,
   rebuiltRecord,
   recordView,
   type ElementContext,
@@ -49,6 +50,8 @@ interface Loaded {
   stepDown: number | undefined
   prerequisites: Map<string, Map<string, PrerequisiteStatus[]>>
 }
+
+type NewEvent = typeof progressEvents.$inferInsert & { id: string }
 
 const key = (athleteId: string, elementId: string) => `${athleteId}|${elementId}`
 
@@ -77,6 +80,19 @@ async function load(
     throw invalid('counterpartId', 'Choose the element’s own mirror to log the pair.')
   const contexts = await Promise.all(ids.map((id) => elementContext(db, access.clubId, id)))
   const withDirection = contexts.map((c, i) => ({ ...c, direction: [first, second][i]!.direction }))
+  input.entries.forEach((entry, i) => {
+    const element = contexts.find((c) => c.id === entry.elementId)
+    const count = element?.steps.length ?? 0
+    if (
+      element &&
+      entry.stepIndex !== null &&
+      entry.stepIndex !== undefined &&
+      entry.stepIndex >= count
+    )
+      throw new AppError(400, 'invalid_input', `${element.name} has ${count} steps.`, [
+        { path: `entries.${i}.stepIndex`, message: `Choose one of the ${count} steps.` },
+      ])
+  })
 
   const roster = await db
     .select({ id: athletes.id, givenName: athletes.givenName, familyName: athletes.familyName })
@@ -101,16 +117,15 @@ async function load(
   let rows: RecordRow[] = []
   if (athleteIds.length > 0) {
     if (lock) {
-      await db
-        .insert(progressRecords)
-        .values(
-          input.entries.map((e) => ({
-            clubId: access.clubId,
-            athleteId: e.athleteId,
-            elementId: e.elementId,
-          })),
+      // In the one order every writer uses, so that two batches never wait on each other's
+      // new rows in a circle.
+      const placeholders = input.entries
+        .map((e) => ({ clubId: access.clubId, athleteId: e.athleteId, elementId: e.elementId }))
+        .sort(
+          (a, b) =>
+            a.athleteId.localeCompare(b.athleteId) || a.elementId.localeCompare(b.elementId),
         )
-        .onConflictDoNothing()
+      await db.insert(progressRecords).values(placeholders).onConflictDoNothing()
     }
     const query = db
       .select()
@@ -238,12 +253,14 @@ async function writeBatch(
   squadId: string,
   input: Input,
 ): Promise<BatchResult> {
+  // Before the element is read: a steps change commits first or waits for this batch.
+  await lockElements(tx, access.clubId, [input.elementId, input.counterpartId ?? input.elementId])
   const loaded = await load(tx, access, squadId, input, true)
   const clientIds = input.entries.flatMap((e) => (e.clientEventId ? [e.clientEventId] : []))
   const stored = await storedByClientId(tx, access.clubId, clientIds)
   const results: BatchResult['results'] = []
-  const fresh: { index: number; row: EventRow; element: ElementContext }[] = []
-  const recordedAt = new Date()
+  // recorded_at is left to the database (its time, as for a single entry).
+  const fresh: { index: number; row: NewEvent; element: ElementContext }[] = []
   input.entries.forEach((entry, i) => {
     const element = loaded.elements.find((e) => e.id === entry.elementId)!
     const before = stored.get(entry.clientEventId ?? '')
@@ -266,16 +283,14 @@ async function writeBatch(
       return
     }
     const record = loaded.records.get(key(entry.athleteId, entry.elementId))
-    if (
-      entry.expectedLastEventId !== undefined &&
-      entry.expectedLastEventId !== (record?.lastEventId ?? null)
-    ) {
-      throw conflict(
+    if (entry.expectedLastEventId !== (record?.lastEventId ?? null)) {
+      const path = `entries.${i}.expectedLastEventId`
+      throw new AppError(
+        409,
+        'conflict',
         'Someone else has just changed this athlete’s record. Look again at where they stand, then save.',
-        {
-          path: `entries.${i}.expectedLastEventId`,
-          record: recordView(record, entry.athleteId, entry.elementId),
-        },
+        [{ path, message: 'Changed by someone else since the list was shown.' }],
+        { path, record: recordView(record, entry.athleteId, entry.elementId) },
       )
     }
     const plan = planEntry(loaded, element, entry.athleteId, entry, input.occurredOn)
@@ -296,7 +311,6 @@ async function writeBatch(
         pauseReason: null,
         plannedStepIndex: null,
         occurredOn: input.occurredOn,
-        recordedAt,
         coachId: access.userId,
         note: null,
         skipReason: entry.skipReason ?? null,

@@ -18,6 +18,7 @@ import {
 import {
   elementContext,
   eventRows,
+  lockElements,
   recompute,
   recordView,
   toDomainEvent,
@@ -163,6 +164,8 @@ async function appendEvent(
 ): Promise<EventResult> {
   return db.transaction(async (tx) => {
     await athleteInScope(tx, access, athleteId, 'write')
+    // Before anything of the element is read: a steps change waits, or is waited for.
+    await lockElements(tx, access.clubId, [input.elementId])
     await elementContext(tx, access.clubId, input.elementId)
     await tx
       .insert(progressRecords)

@@ -10,6 +10,7 @@ import { clubs, elements, elementSteps, progressEvents, progressRecords } from '
 import { notFound } from '../http/errors.ts'
 import {
   elementContext,
+  lockElements,
   storedState,
   toDomainEvent,
   type ElementContext,
@@ -32,6 +33,12 @@ export interface HistoryEvent {
  * records rebuilt, in a few bulk statements.
  */
 export async function appendHistory(db: DbOrTx, clubId: string, history: HistoryEvent[]) {
+  // Before the steps are read: a steps change to any of these elements waits, or is waited for.
+  await lockElements(
+    db,
+    clubId,
+    history.map((e) => e.elementId),
+  )
   const elementRows = await db
     .select({ id: elements.id, stepsVersion: elements.stepsVersion })
     .from(elements)

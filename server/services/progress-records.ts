@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull } from 'drizzle-orm'
+import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
 import {
   replayRecord,
   type ProgressEvent,
@@ -30,6 +30,24 @@ export interface ElementContext {
   stepsVersion: number
   steps: { name: string; modality: string; criterion: string; minDays: number | null }[]
   maps: Map<number, number[]>
+}
+
+/**
+ * Holds the elements' rows FOR SHARE until the writer's transaction ends, taken first and in id
+ * order by every writer of events (one entry, a squad's batch, a history). A steps change holds
+ * its element FOR UPDATE, so it and a writer never interleave: the writer reads the steps and
+ * their version after the change commits, or the change waits until the writer's events and
+ * records are stored and then rebuilds them. Writers do not block each other.
+ */
+export async function lockElements(db: DbOrTx, clubId: string, elementIds: string[]) {
+  const ids = [...new Set(elementIds)].sort()
+  if (ids.length === 0) return
+  await db
+    .select({ id: elements.id })
+    .from(elements)
+    .where(and(eq(elements.clubId, clubId), inArray(elements.id, ids)))
+    .orderBy(asc(elements.id))
+    .for('share')
 }
 
 export async function elementContext(

@@ -16,10 +16,10 @@ export const batchEntrySchema = z.object({
   skipReason: skipReasonSchema.nullish(),
   clientEventId: clientEventIdSchema.nullish(),
   /**
-   * The newest event the coach's screen showed for this record (null: it had none). Left out,
-   * the entry is not checked against a newer write.
+   * The newest event the coach's screen showed for this record (null: it had none), as the
+   * single entry's: a repeat without a client id meets 409 instead of moving the athlete twice.
    */
-  expectedLastEventId: z.uuid().nullable().optional(),
+  expectedLastEventId: z.uuid('Send the newest event the screen showed, or null.').nullable(),
 })
 export type BatchEntry = z.infer<typeof batchEntrySchema>
 
@@ -41,7 +41,17 @@ export const batchInputSchema = z
     if (!value.dryRun && value.entries.length === 0)
       ctx.addIssue({ code: 'custom', path: ['entries'], message: 'Tick at least one athlete.' })
     const seen = new Set<string>()
+    const clientIds = new Set<string>()
     value.entries.forEach((entry, i) => {
+      if (entry.clientEventId) {
+        if (clientIds.has(entry.clientEventId))
+          ctx.addIssue({
+            code: 'custom',
+            path: ['entries', i, 'clientEventId'],
+            message: 'This entry id is already used by another entry of the batch.',
+          })
+        clientIds.add(entry.clientEventId)
+      }
       const key = `${entry.athleteId}|${entry.elementId}`
       if (seen.has(key))
         ctx.addIssue({

@@ -454,7 +454,13 @@ const matrix: Record<string, Row> = {
       body: {
         elementId: await anyElement(f),
         occurredOn: '2026-11-01',
-        entries: [{ athleteId: await athleteInSquad(f), elementId: await anyElement(f) }],
+        entries: [
+          {
+            athleteId: await athleteInSquad(f),
+            elementId: await anyElement(f),
+            expectedLastEventId: null,
+          },
+        ],
       },
     }),
   },

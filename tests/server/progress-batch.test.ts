@@ -177,8 +177,8 @@ describe('a squad batch', () => {
         occurredOn: '2026-11-02',
         entries: [
           { athleteId: athletes[0]!.id, elementId: tucks.backTuck, expectedLastEventId: null },
-          { athleteId: athletes[1]!.id, elementId: tucks.backTuck },
-          { athleteId: athletes[1]!.id, elementId: tucks.frontTuck },
+          { athleteId: athletes[1]!.id, elementId: tucks.backTuck, expectedLastEventId: null },
+          { athleteId: athletes[1]!.id, elementId: tucks.frontTuck, expectedLastEventId: null },
         ],
       })
       .expect(201)
@@ -190,7 +190,11 @@ describe('a squad batch', () => {
 
   it('saves nothing when one entry fails, naming that entry', async () => {
     const { squad, athletes } = await newSquad(4)
-    const entries = athletes.map((a) => ({ athleteId: a.id, elementId: tucks.backTuck }))
+    const entries = athletes.map((a) => ({
+      athleteId: a.id,
+      elementId: tucks.backTuck,
+      expectedLastEventId: null,
+    }))
     // From no step to step 3 skips steps 1 and 2 (hand-worked): a reason is needed.
     entries[3] = { ...entries[3]!, stepIndex: 2 } as (typeof entries)[number]
     const res = await coach
@@ -243,6 +247,7 @@ describe('a squad batch', () => {
         athleteId: a.id,
         elementId: tucks.backTuck,
         clientEventId: crypto.randomUUID(),
+        expectedLastEventId: null,
       })),
     }
     const answers = await Promise.all([
@@ -266,7 +271,7 @@ describe('a squad batch', () => {
     const body = (athleteId: string) => ({
       elementId: tucks.backTuck,
       occurredOn: '2026-11-02',
-      entries: [{ athleteId, elementId: tucks.backTuck }],
+      entries: [{ athleteId, elementId: tucks.backTuck, expectedLastEventId: null }],
     })
     const refused = await coach.post(batch(other.id)).send(body(athletes[0]!.id)).expect(403)
     expect(refused.body.error.message).toBe('Not coached is not one of your squads.')

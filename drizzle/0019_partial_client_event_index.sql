@@ -1,0 +1,2 @@
+DROP INDEX "progress_events_client_event_idx";--> statement-breakpoint
+CREATE UNIQUE INDEX "progress_events_client_event_idx" ON "progress_events" USING btree ("club_id","client_event_id") WHERE "progress_events"."client_event_id" IS NOT NULL;
