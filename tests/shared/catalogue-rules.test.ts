@@ -1,0 +1,101 @@
+// Rules of the catalogue that catalogue.test.ts leaves open: direction words in the names of
+// non-salto elements, and prerequisite cycles through an element with several prerequisites.
+// Twofold's own rules (product brief): common practice (no published source).
+import { describe, expect, it } from 'vitest'
+import {
+  counterpartKey,
+  descriptionKey,
+  findCounterparts,
+  findPrerequisiteCycle,
+  type ElementDescription,
+} from '../../shared/domain/catalogue.ts'
+import type { Direction } from '../../shared/domain/element.ts'
+
+const nonSalto = (direction: Direction, name: string, apparatus = 'floor'): ElementDescription => ({
+  name,
+  apparatus,
+  direction,
+  quarterRotations: 0,
+  twists: [],
+  shape: null,
+})
+
+describe('direction words in the names of non-salto elements', () => {
+  it.each([
+    ['Front walkover', 'Back walkover'],
+    ['Forward walkover', 'Backward walkover'],
+    ['Fwd walkover', 'Bwd walkover'],
+    ['FORWARD  Roll', '  backward roll '],
+  ])('pairs the forward "%s" with the backward "%s"', (forward, backward) => {
+    const f = nonSalto('forward', forward)
+    const b = nonSalto('backward', backward)
+    expect(counterpartKey(f)).toBe(descriptionKey(b))
+    expect(counterpartKey(b)).toBe(descriptionKey(f))
+  })
+
+  it('keeps the other words, so a walkover never pairs with a handspring', () => {
+    expect(descriptionKey(nonSalto('forward', 'Forward walkover'))).toBe('floor|forward|0|walkover')
+    expect(counterpartKey(nonSalto('forward', 'Front walkover'))).not.toBe(
+      descriptionKey(nonSalto('backward', 'Back handspring')),
+    )
+    // a word that only contains a direction word is kept
+    expect(descriptionKey(nonSalto('forward', 'Frontal roll'))).toBe('floor|forward|0|frontal roll')
+  })
+
+  it('compares the apparatus whatever its case and spaces', () => {
+    const f = nonSalto('forward', 'Front walkover', ' Floor ')
+    expect(descriptionKey(f)).toBe('floor|forward|0|walkover')
+  })
+
+  it('pairs the first of two elements with one description', () => {
+    const catalogue = [
+      { id: 'fwo-1', ...nonSalto('forward', 'Front walkover') },
+      { id: 'fwo-2', ...nonSalto('forward', 'Forward walkover') },
+      { id: 'bwo', ...nonSalto('backward', 'Back walkover') },
+    ]
+    expect(findCounterparts(catalogue).get('bwo')).toBe('fwo-1')
+  })
+})
+
+describe('prerequisite cycles through an element with several prerequisites', () => {
+  const edge = (elementId: string, requiresElementId: string) => ({ elementId, requiresElementId })
+
+  it('follows every prerequisite listed for an element, not only the first', () => {
+    // a requires b and c; c requires a: the cycle runs through a's second prerequisite
+    expect(findPrerequisiteCycle([edge('a', 'b'), edge('a', 'c'), edge('c', 'a')])).toEqual([
+      'a',
+      'c',
+      'a',
+    ])
+    // the same with the edges about to be saved
+    expect(findPrerequisiteCycle([edge('c', 'a')], [edge('a', 'b'), edge('a', 'c')])).toEqual([
+      'a',
+      'c',
+      'a',
+    ])
+  })
+
+  it('starts the cycle at the new edge that closes it, even when reached from elsewhere', () => {
+    // x → a → b → c and the new c → a close a ring a → b → c → a, found from x; reported from c,
+    // the element being edited
+    const existing = [edge('a', 'b'), edge('b', 'c')]
+    expect(findPrerequisiteCycle(existing, [edge('x', 'a'), edge('c', 'a')])).toEqual([
+      'c',
+      'a',
+      'b',
+      'c',
+    ])
+  })
+
+  it('reports the cycle as found when no new edge is on it', () => {
+    const existing = [edge('b', 'c'), edge('c', 'b')]
+    expect(findPrerequisiteCycle(existing, [edge('a', 'b')])).toEqual(['b', 'c', 'b'])
+  })
+
+  it('does not report an element reached twice without a cycle', () => {
+    // d requires b and c, both of which require a: a is visited twice, no cycle
+    expect(
+      findPrerequisiteCycle([], [edge('d', 'b'), edge('d', 'c'), edge('b', 'a'), edge('c', 'a')]),
+    ).toBeNull()
+  })
+})
