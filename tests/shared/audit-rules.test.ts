@@ -93,6 +93,9 @@ describe('a requirement for a salto is never met by a handspring or a walkover',
     )
     expect(byId['salto-forward-sideward']).toMatchObject({ met: false, elementId: 'ft' })
     expect(byId['salto-backward']).toMatchObject({ met: false, elementId: 'bt' })
+    // nor is a twist or a double found among them
+    expect(byId['salto-full-twist']).toMatchObject({ noMatchingElement: true, elementId: null })
+    expect(byId['double-salto']).toMatchObject({ noMatchingElement: true, elementId: null })
   })
 
   it('keeps them out whatever their direction', () => {

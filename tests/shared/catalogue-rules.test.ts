@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest'
 import {
   counterpartKey,
   descriptionKey,
+  figNotation,
   findCounterparts,
   findPrerequisiteCycle,
   type ElementDescription,
@@ -57,6 +58,28 @@ describe('direction words in the names of non-salto elements', () => {
   })
 })
 
+describe('notation and keys of elements without a shape or a salto', () => {
+  it('gives no FIG notation without a salto or without a shape', () => {
+    // FIG Trampoline Code of Points: the notation is quarter saltos, twists per salto, shape
+    expect(figNotation({ quarterRotations: 4, twists: [0], shape: 'tuck' })).toBe('40o')
+    expect(figNotation({ quarterRotations: 0, twists: [], shape: 'tuck' })).toBeNull()
+    expect(figNotation({ quarterRotations: 4, twists: [0], shape: null })).toBeNull()
+  })
+
+  it('writes a salto of no stated shape as a dash in its key', () => {
+    const salto: ElementDescription = {
+      name: 'Back salto',
+      apparatus: 'floor',
+      direction: 'backward',
+      quarterRotations: 4,
+      twists: [0],
+      shape: null,
+    }
+    expect(descriptionKey(salto)).toBe('floor|backward|4|0|-')
+    expect(counterpartKey(salto)).toBe('floor|forward|4|0|-')
+  })
+})
+
 describe('prerequisite cycles through an element with several prerequisites', () => {
   const edge = (elementId: string, requiresElementId: string) => ({ elementId, requiresElementId })
 
@@ -97,5 +120,28 @@ describe('prerequisite cycles through an element with several prerequisites', ()
     expect(
       findPrerequisiteCycle([], [edge('d', 'b'), edge('d', 'c'), edge('b', 'a'), edge('c', 'a')]),
     ).toBeNull()
+  })
+
+  it('reports a cycle from the first new edge on it', () => {
+    // a → b and b → c are new, c → a exists: the ring is found from a and stays as found
+    expect(findPrerequisiteCycle([edge('c', 'a')], [edge('a', 'b'), edge('b', 'c')])).toEqual([
+      'a',
+      'b',
+      'c',
+      'a',
+    ])
+  })
+
+  it('visits each element once: a ladder of 40 diamonds is answered at once', () => {
+    // d(i) requires l(i) and r(i), both of which require d(i+1): 2^40 paths but 121 elements,
+    // so a search that revisited finished elements would never end (the documented O(n + e))
+    const ladder = Array.from({ length: 40 }, (_, i) => [
+      edge(`d${i}`, `l${i}`),
+      edge(`d${i}`, `r${i}`),
+      edge(`l${i}`, `d${i + 1}`),
+      edge(`r${i}`, `d${i + 1}`),
+    ]).flat()
+    expect(findPrerequisiteCycle(ladder)).toBeNull()
+    expect(findPrerequisiteCycle(ladder, [edge('d40', 'd0')])?.length).toBe(82)
   })
 })

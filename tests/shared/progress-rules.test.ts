@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest'
 import {
   checkEvent,
   compareEvents,
+  pace,
   replayRecord,
   stepOf,
   type CheckContext,
@@ -161,5 +162,88 @@ describe('boundaries of the checks before a step is saved', () => {
       prerequisites: [{ elementName: 'Round-off', requiredStepIndex: 2, athleteStepIndex: 2 }],
     }
     expect(checkEvent({ stepIndex: 0 }, stepTo(1, '2025-03-02'), context)).toEqual([])
+  })
+
+  it('lists three skipped steps with commas and a final "and"', () => {
+    const [result] = checkEvent({ stepIndex: 0 }, stepTo(4, '2025-03-20'), { steps })
+    expect(result?.message).toBe(
+      'Moving from step 1 (Floor drills) to step 5 skips step 2 (Trampoline), step 3 (Pit) and step 4 (Floor solo). State a reason for the skip.',
+    )
+  })
+
+  it('checks no minimum for a step beyond the progression as it now stands', () => {
+    // a record at index 5 of a progression since shortened to 4 steps: no rule for that step
+    const context = { steps, reachedCurrentStepOn: '2025-03-01' }
+    expect(checkEvent({ stepIndex: 5 }, stepTo(6, '2025-03-02'), context)).toEqual([])
+  })
+
+  it('flags a prerequisite never started even when its first step is enough', () => {
+    const context: CheckContext = {
+      steps,
+      prerequisites: [{ elementName: 'Round-off', requiredStepIndex: 0, athleteStepIndex: null }],
+    }
+    expect(checkEvent({ stepIndex: 0 }, stepTo(1, '2025-03-02'), context)).toEqual([
+      {
+        code: 'prerequisite',
+        severity: 'warning',
+        message: 'Prerequisite not met: Round-off should be at step 1 or higher (now not started).',
+      },
+    ])
+  })
+
+  it('runs no step check on a pause', () => {
+    // a pause one day into a step of 14 minimum days, with a prerequisite unmet: none applies
+    const context: CheckContext = {
+      steps,
+      reachedCurrentStepOn: '2025-03-01',
+      prerequisites: [{ elementName: 'Round-off', requiredStepIndex: 3, athleteStepIndex: null }],
+    }
+    const pause: ProposedEvent = { kind: 'pause', reason: 'fear', occurredOn: '2025-03-02' }
+    expect(checkEvent({ stepIndex: 1 }, pause, context)).toEqual([])
+  })
+})
+
+describe('replay edges', () => {
+  const ev = (id: string, on: string, change: Record<string, unknown>): ProgressEvent =>
+    ({
+      id,
+      occurredOn: on,
+      recordedAt: `${on}T10:00:00.000Z`,
+      coachId: 'coach-1',
+      ...change,
+    }) as ProgressEvent
+
+  it('keeps one timeline point per day, the last change of that day', () => {
+    const record = replayRecord([
+      ev('1', '2025-01-10', { kind: 'step', stepIndex: 0 }),
+      ev('2', '2025-02-10', { kind: 'step', stepIndex: 1 }),
+      ev('3', '2025-03-10', { kind: 'step', stepIndex: 2 }),
+      {
+        ...ev('4', '2025-03-10', { kind: 'step', stepIndex: 3 }),
+        recordedAt: '2025-03-10T11:00:00.000Z',
+      },
+    ])
+    expect(record.timeline).toEqual([
+      ['2025-01-10', 0, 0],
+      ['2025-02-10', 1, 1],
+      ['2025-03-10', 3, 3],
+    ])
+  })
+
+  it('never moves the athlete up on resume to a planned step above the current one', () => {
+    // planned step index 3 while at index 1: the resume keeps index 1
+    const record = replayRecord([
+      ev('1', '2025-01-10', { kind: 'step', stepIndex: 1 }),
+      ev('2', '2025-02-10', { kind: 'pause', reason: 'injury', plannedStepIndex: 3 }),
+      ev('3', '2025-03-10', { kind: 'resume' }),
+    ])
+    expect(record).toMatchObject({ stepIndex: 1, paused: false, plannedStepIndex: null })
+  })
+
+  it('has no pace over a window of no days', () => {
+    const events = [ev('1', '2025-01-10', { kind: 'step', stepIndex: 2 })]
+    expect(pace(events, '2025-03-01', 0)).toBe(0)
+    // 180 days up to 2025-03-01: from never started (−1) to index 2 = 3 steps; 3 / 180 × 30 = 0.5
+    expect(pace(events, '2025-03-01')).toBeCloseTo(0.5, 12)
   })
 })
