@@ -90,6 +90,12 @@ describe('prerequisite cycles through an element with several prerequisites', ()
       'c',
       'a',
     ])
+    // and through its first: a requires b and c; b requires a
+    expect(findPrerequisiteCycle([edge('a', 'b'), edge('a', 'c'), edge('b', 'a')])).toEqual([
+      'a',
+      'b',
+      'a',
+    ])
     // the same with the edges about to be saved
     expect(findPrerequisiteCycle([edge('c', 'a')], [edge('a', 'b'), edge('a', 'c')])).toEqual([
       'a',
@@ -103,6 +109,17 @@ describe('prerequisite cycles through an element with several prerequisites', ()
     // the element being edited
     const existing = [edge('a', 'b'), edge('b', 'c')]
     expect(findPrerequisiteCycle(existing, [edge('x', 'a'), edge('c', 'a')])).toEqual([
+      'c',
+      'a',
+      'b',
+      'c',
+    ])
+  })
+
+  it('does not start the cycle at a new edge that only leads into it', () => {
+    // new x → b leads into the ring b → c → a → b (found from x); new c → a closes it
+    const existing = [edge('a', 'b'), edge('b', 'c')]
+    expect(findPrerequisiteCycle(existing, [edge('x', 'b'), edge('c', 'a')])).toEqual([
       'c',
       'a',
       'b',
