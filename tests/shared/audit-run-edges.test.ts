@@ -31,6 +31,18 @@ describe('records and elements of an audit run', () => {
     }
   })
 
+  it('ignores a record below the first step, as one never started', () => {
+    // a step index of −1 is no step: the athlete has no data, not a lag of 0 (product brief)
+    const result = runAudit({
+      asOf,
+      elements,
+      athletes: [athlete('amy')],
+      records: [rec('amy', 'bt', -1)],
+    })
+    expect(result.athletes[0]).toMatchObject({ frontLag: null, backLag: null })
+    expect(result.gaps).toEqual([])
+  })
+
   it('rejects two athletes with one id', () => {
     expect(() => runAudit({ ...inputs, athletes: [athlete('x'), athlete('x', 't')] })).toThrow(
       'Two athletes share the id x.',

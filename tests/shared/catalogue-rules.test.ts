@@ -127,6 +127,17 @@ describe('prerequisite cycles through an element with several prerequisites', ()
     ])
   })
 
+  it('does not start the cycle at a new edge that only leaves it', () => {
+    // new b → x leaves the ring b → c → a → b (found from b); new a → b closes it
+    const existing = [edge('b', 'c'), edge('c', 'a')]
+    expect(findPrerequisiteCycle(existing, [edge('b', 'x'), edge('a', 'b')])).toEqual([
+      'a',
+      'b',
+      'c',
+      'a',
+    ])
+  })
+
   it('reports the cycle as found when no new edge is on it', () => {
     const existing = [edge('b', 'c'), edge('c', 'b')]
     expect(findPrerequisiteCycle(existing, [edge('a', 'b')])).toEqual(['b', 'c', 'b'])
