@@ -12,5 +12,8 @@ export default defineConfig({
     root: fileURLToPath(new URL('../..', import.meta.url)),
     include: ['tests/shared/**/*.test.ts'],
     environment: 'node',
+    // Stryker times mutants out itself; vitest's 5 s default would count a slow test on a busy
+    // machine (the 100,000-record audit) as a kill.
+    testTimeout: 60_000,
   },
 })
