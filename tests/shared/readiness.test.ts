@@ -82,6 +82,8 @@ describe('the seeded women’s floor profile against the published composition r
   ])('%s is met by the floor %s, not by the floor %s', (id, meets, doesNot) => {
     const ids = candidateIds(id)
     expect(ids.has(`floor:${meets}`)).toBe(true)
+    // the element left out is in the catalogue, so its absence from the candidates means something
+    expect(catalogueOf().some((e) => e.id === `floor:${doesNot}`)).toBe(true)
     expect(ids.has(`floor:${doesNot}`)).toBe(false)
   })
 
