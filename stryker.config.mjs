@@ -42,8 +42,9 @@
  *   (the catalogue derives no twist for a non-salto element, so a full twist implies a salto);
  *   `typeof match.direction === 'string'` → `false` (as its StringLiteral above);
  *   `match.minRotationClass !== undefined` and `match.minTwistBand !== undefined` → `true`
- *   (`indexOf(undefined)` is −1, no element ranks below it); `nearest.needed > 0` → `true` and
- *   `if (needed === 0) break` → `false` (the first met candidate stays the one named).
+ *   (`indexOf(undefined)` is −1, no element ranks below it); `nearest.needed > 0` → `true` or
+ *   `>= 0`, and `if (needed === 0) break` → `false` (the loop stops at the first met candidate, so
+ *   `nearest.needed` is never 0 there, and nothing would replace a met one).
  * - audit/run.ts: `e.counterpartId === null ? -1` → `false`, `c === -1 ? 0 : p(c)` → `false`,
  *   `c === -1 ? null` → `false` (a lookup of null or −1 finds nothing, giving the same −1, 0 or
  *   null); `record.stepIndex > before` → `>=` and `pe > best…` → `>=` (the same value is set
