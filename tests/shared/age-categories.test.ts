@@ -126,3 +126,33 @@ describe('categoryChangesWithin', () => {
     expect(categoryChangesWithin(birthYear, discipline, asOf, horizonMonths)).toEqual(expected)
   })
 })
+
+describe('the seeded thresholds say where they come from', () => {
+  it.each(Object.keys(defaultAgeThresholds) as Discipline[])(
+    '%s names the FIG Technical Regulations and that it is from memory',
+    (discipline) => {
+      const { source } = defaultAgeThresholds[discipline]
+      expect(source).toMatch(/^FIG Technical Regulations 2025, Section 1/)
+      expect(source).toContain('from memory')
+    },
+  )
+})
+
+describe('dates of years below 1000 keep four digits (ISO 8601)', () => {
+  // ISO 8601 writes a calendar year with four digits, 0998 not 998; the dates compared as text
+  // must do the same. Women's artistic juniors from 14 (wag, from memory).
+  it('finds a change on 1 January 0999, written so', () => {
+    // born 985: 13 in 998 (age group), 14 in 999 (junior)
+    expect(categoryChangesWithin(985, 'artistic-women', '0998-06-15')).toEqual({
+      from: 'age-group',
+      to: 'junior',
+      startsOn: '0999-01-01',
+      ageInYear: 14,
+    })
+  })
+
+  it('ends a short horizon within its own year', () => {
+    // born 984: 14 in 998; as of 0997-03-01 two months reach 0997-05-01, before 0998-01-01
+    expect(categoryChangesWithin(984, 'artistic-women', '0997-03-01', 2)).toBeNull()
+  })
+})

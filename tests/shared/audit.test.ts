@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { compareAudits } from '../../shared/domain/audit/comparison.ts'
 import {
   balanceRatio,
@@ -17,6 +17,7 @@ import type {
   AuditInputs,
   AuditProgress,
   AuditRecord,
+  AuditResult,
 } from '../../shared/domain/audit/types.ts'
 import { asOf, athletes, el, elements, inputs, rec, records } from '../support/audit-example.ts'
 // The formulas are the product brief's; the rotation weights and the gap threshold are common
@@ -108,7 +109,12 @@ describe('audit formulas', () => {
 })
 
 describe('runAudit', () => {
-  const result = runAudit(inputs)
+  // Run in a hook, not while the file is collected: a throw fails the tests, not the collection.
+  // beforeEach rather than beforeAll so that mutation testing sees which test runs which code.
+  let result: AuditResult
+  beforeEach(() => {
+    result = runAudit(inputs)
+  })
 
   it.each([
     // ana backward: Σp = bt 1 + bf 0.5 + bdt 0.25 = 1.75;

@@ -1,7 +1,7 @@
-import { describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { packAuditResult, unpackAuditResult } from '../../server/services/audit-storage.ts'
 import { runAudit } from '../../shared/domain/audit/run.ts'
-import type { AuditElement, AuditInputs } from '../../shared/domain/audit/types.ts'
+import type { AuditElement, AuditInputs, AuditResult } from '../../shared/domain/audit/types.ts'
 import {
   athleteFullName,
   confirmationMatches,
@@ -60,7 +60,12 @@ const swapped = <T>(value: T): T =>
   JSON.parse(JSON.stringify(value).replaceAll('"erased-one"', '"fresh-id"'))
 
 describe('replaceAthleteId', () => {
-  const result = runAudit(inputs)
+  // In a hook, not while the file is collected: a throw fails the tests, not the collection, and
+  // mutation testing sees which test runs which code.
+  let result: AuditResult
+  beforeEach(() => {
+    result = runAudit(inputs)
+  })
 
   it('replaces the id in every row of the stored form, and nothing else', () => {
     expect(result.gaps.map((g) => g.athleteId)).toContain('erased-one')

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import type { TimelinePoint } from '../../shared/domain/progress.ts'
 import {
   replaceOutcomeAthleteId,
@@ -78,7 +78,12 @@ const inputs = {
 }
 
 describe('visitOutcomes (worked example above)', () => {
-  const result = visitOutcomes(inputs)
+  // In a hook, not while the file is collected: a throw fails the tests, not the collection, and
+  // mutation testing sees which test runs which code.
+  let result: ReturnType<typeof visitOutcomes>
+  beforeEach(() => {
+    result = visitOutcomes(inputs)
+  })
 
   it.each([
     ['R1', 'accepted', 1, 3, true],
