@@ -12,6 +12,8 @@ export default defineConfigWithVueTs(
     'drizzle/**',
     '.data/**',
     'test-results/**',
+    '.stryker-tmp*/**',
+    'reports/**',
     'playwright-report/**',
   ]),
   pluginVue.configs['flat/recommended'],
