@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { reactive, ref } from 'vue'
 import type { RotationClass } from '@shared/domain/element'
-import type { Grid } from '@shared/schemas/progress'
+import type { Grid, RecordView } from '@shared/schemas/progress'
 import * as api from '@/api/squads'
 
 /** The grid filters as the controls hold them: a cleared select is null. */
@@ -14,6 +14,8 @@ export interface GridFilterState {
 export const useSquadGridStore = defineStore('squadGrid', () => {
   const grid = ref<Grid | null>(null)
   const filters = reactive<GridFilterState>({ apparatus: null, rotationClass: null })
+  /** Pairs nobody in the squad has started are left out unless asked for. */
+  const hideUnstarted = ref(true)
   const loading = ref(false)
   const error = ref<string | null>(null)
   let serial = 0
@@ -34,10 +36,24 @@ export const useSquadGridStore = defineStore('squadGrid', () => {
     }
   }
 
+  /**
+   * Puts a record the server just answered into its cell, so that a logged step shows without a
+   * reload. A record of an athlete or element not on the grid changes nothing.
+   */
+  function applyRecord(record: RecordView) {
+    const g = grid.value
+    if (!g) return
+    const i = g.athletes.findIndex((a) => a.id === record.athleteId)
+    const j = g.columns.findIndex((c) => c.elementId === record.elementId)
+    const row = g.cells[i]
+    if (i === -1 || j === -1 || !row) return
+    row[j] = { step: record.stepIndex, paused: record.paused, flagged: record.flagged }
+  }
+
   function resetFilters() {
     filters.apparatus = null
     filters.rotationClass = null
   }
 
-  return { grid, filters, loading, error, load, resetFilters }
+  return { grid, filters, hideUnstarted, loading, error, load, applyRecord, resetFilters }
 })

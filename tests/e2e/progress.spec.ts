@@ -32,7 +32,7 @@ test('a coach logs a step on a tablet and sees the squad grid update', async ({ 
   await page.getByRole('link', { name: 'Kites' }).first().click()
   const cell = page
     .getByRole('row', { name: /^Dewhurst, Ada/ })
-    .locator('[title^="Ada: Aerial cartwheel step 1 of"]')
+    .locator('[title^="Ada Dewhurst: Aerial cartwheel step 1 of"]')
   await expect(cell).toBeVisible()
   await screenshot(page, 'squad-grid-tablet')
   await context.close()
