@@ -2,7 +2,7 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt'
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator'
 import type { RotationClass, TwistBand } from '../shared/domain/element.ts'
 import type { SquadLevel } from '../shared/domain/club.ts'
-import type { HistoryEvent } from '../server/services/progress.ts'
+import type { HistoryEvent } from '../server/services/progress-history.ts'
 
 // Eighteen months of plausible progress for the demo club, made up but deterministic: the same
 // random seed and day give the same history. One squad's forward program clearly trails its

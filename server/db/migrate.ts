@@ -4,7 +4,7 @@ import { migrate } from 'drizzle-orm/node-postgres/migrator'
 import pg from 'pg'
 import { projectDir } from '../paths.ts'
 import { ensureJobSchema } from '../jobs/queue.ts'
-import { backfillRecordTimelines } from '../services/progress.ts'
+import { backfillRecordTimelines } from '../services/progress-records.ts'
 import type { Db } from './client.ts'
 import * as schema from './schema.ts'
 

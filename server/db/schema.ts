@@ -402,9 +402,15 @@ export const progressEvents = pgTable(
     /** The checks shown before saving, kept with the event. */
     checks: jsonb().notNull().default([]),
     flagged: boolean().notNull().default(false),
+    /**
+     * The id the tablet gave the entry, so that a retry (a lost answer, an offline queue sent
+     * twice) stores it once: the unique index below turns the second copy into a read-back.
+     */
+    clientEventId: uuid(),
   },
   (t) => [
     primaryKey({ columns: [t.clubId, t.id] }),
+    uniqueIndex('progress_events_client_event_idx').on(t.clubId, t.clientEventId),
     foreignKey({
       columns: [t.clubId, t.athleteId],
       foreignColumns: [athletes.clubId, athletes.id],

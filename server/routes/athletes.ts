@@ -15,13 +15,8 @@ import {
 import { removeClipObjects } from '../services/clips.ts'
 import { eraseAthlete } from '../services/erasure.ts'
 import { progressDue } from '../services/progress-due.ts'
-import {
-  athleteRecords,
-  missingSkills,
-  previewEvent,
-  recordDetail,
-  recordEvent,
-} from '../services/progress.ts'
+import { previewEvent, recordEvent } from '../services/progress-events.ts'
+import { athleteRecords, missingSkills, recordDetail } from '../services/progress-reads.ts'
 import type { ClubRoute } from './club-routes.ts'
 
 const athleteParams = z.object({ athleteId: z.uuid('No such athlete.') })
@@ -138,17 +133,16 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       method: 'post',
       path: '/athletes/:athleteId/events',
       allow: writers,
-      handler: async (req, res) =>
-        res
-          .status(201)
-          .json(
-            await recordEvent(
-              ctx.db,
-              req.club,
-              athleteParams.parse(req.params).athleteId,
-              progressEventInputSchema.parse(req.body),
-            ),
-          ),
+      handler: async (req, res) => {
+        const result = await recordEvent(
+          ctx.db,
+          req.club,
+          athleteParams.parse(req.params).athleteId,
+          progressEventInputSchema.parse(req.body),
+        )
+        // A repeat of an entry already stored creates nothing: 200 with the stored event.
+        res.status(result.replayed ? 200 : 201).json(result)
+      },
     },
     {
       method: 'get',

@@ -7,6 +7,7 @@ import { clipRoutes } from './clips.ts'
 import { clubRoutes } from './club.ts'
 import type { ClubRoute } from './club-routes.ts'
 import { memberRoutes } from './members.ts'
+import { progressBatchRoutes } from './progress-batch.ts'
 import { reportPdfRoutes } from './report-pdfs.ts'
 import { squadRoutes } from './squads.ts'
 import { visitRoutes } from './visits.ts'
@@ -19,6 +20,7 @@ export function allClubRoutes(ctx: AppContext): ClubRoute[] {
     ...catalogueRoutes(ctx),
     ...squadRoutes(ctx),
     ...athleteRoutes(ctx),
+    ...progressBatchRoutes(ctx),
     ...auditRoutes(ctx),
     ...reportPdfRoutes(ctx),
     ...archiveRoutes(ctx),

@@ -19,7 +19,7 @@ import {
   requirementProfiles,
 } from '../db/schema.ts'
 import { listElements } from './catalogue.ts'
-import { replayedTimeline } from './progress.ts'
+import { replayedTimeline } from './progress-records.ts'
 
 /** Athletes whose records one query reads: about 20,000 rows for 200 athletes. */
 const athletesPerBatch = 200

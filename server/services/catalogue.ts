@@ -39,7 +39,7 @@ import {
 import { clips } from '../db/schema-visits.ts'
 import { toCsv } from '../http/csv.ts'
 import { AppError, conflict, notFound } from '../http/errors.ts'
-import { recomputeElementRecords } from './progress.ts'
+import { recomputeElementRecords } from './progress-records.ts'
 
 type ElementRow = typeof elements.$inferSelect
 

@@ -3,6 +3,21 @@ import { pauseReasons } from '../domain/progress.ts'
 import { isoDateSchema } from './auth.ts'
 import { text } from './text.ts'
 
+/** The day an event happened: not in the future. */
+export const occurredOnSchema = isoDateSchema.refine(
+  // A day of grace: east of UTC a coach's morning is already the next UTC date.
+  (d) => d <= new Date(Date.now() + 86_400_000).toISOString().slice(0, 10),
+  'The date cannot be in the future.',
+)
+
+export const skipReasonSchema = text().max(500, 'Keep the reason to 500 characters.')
+
+/**
+ * The id the tablet makes for an entry (a UUID): the server stores an entry with the same id
+ * once, so a retry never makes a second event.
+ */
+export const clientEventIdSchema = z.uuid('The entry id must be a UUID.')
+
 /** POST /athletes/:athleteId/events (and /events/check to preview the checks). */
 export const progressEventInputSchema = z
   .object({
@@ -12,13 +27,10 @@ export const progressEventInputSchema = z
     pauseReason: z.enum(pauseReasons, 'Choose why training pauses.').nullish(),
     /** For a lost-skill pause: the step the athlete rebuilds from. */
     plannedStepIndex: z.number().int().min(0).nullish(),
-    occurredOn: isoDateSchema.refine(
-      // A day of grace: east of UTC a coach's morning is already the next UTC date.
-      (d) => d <= new Date(Date.now() + 86_400_000).toISOString().slice(0, 10),
-      'The date cannot be in the future.',
-    ),
+    occurredOn: occurredOnSchema,
     note: text().max(1000, 'Keep the note to 1000 characters.').nullish(),
-    skipReason: text().max(500, 'Keep the reason to 500 characters.').nullish(),
+    skipReason: skipReasonSchema.nullish(),
+    clientEventId: clientEventIdSchema.nullish(),
     /** A correction: the earlier, mistaken event that this one voids. */
     correctsEventId: z.uuid().nullish(),
     /**
@@ -85,16 +97,28 @@ export type RecordView = z.infer<typeof recordViewSchema>
 /** GET /athletes/:athleteId/records/:elementId */
 export const recordDetailSchema = recordViewSchema.extend({
   steps: z.array(
-    z.object({ name: z.string(), modality: z.string(), minDays: z.number().nullable() }),
+    z.object({
+      name: z.string(),
+      modality: z.string(),
+      /** What the athlete shows to pass the step. */
+      criterion: z.string(),
+      minDays: z.number().nullable(),
+    }),
   ),
   events: z.array(eventViewSchema),
 })
 export type RecordDetail = z.infer<typeof recordDetailSchema>
 
-/** The answer of POST /events: the new record and the checks kept with the event. */
+/**
+ * The answer of POST /events: the new event's id, the record and the checks kept with the event.
+ * `replayed` is true when an entry with the same client id was already stored (nothing new was
+ * written; the record is as it stands now).
+ */
 export const eventResultSchema = z.object({
+  eventId: z.uuid(),
   record: recordViewSchema,
   checks: z.array(checkResultSchema),
+  replayed: z.boolean(),
 })
 export type EventResult = z.infer<typeof eventResultSchema>
 

@@ -35,12 +35,42 @@ export const eventIds = [
 
 // A common trampoline progression for a back tuck (common practice, no published source).
 const steps = [
-  { name: 'Tuck jumps and timers', modality: 'floor-drill', minDays: null },
-  { name: 'Rotation in the spotting rig', modality: 'spotting-rig', minDays: 7 },
-  { name: 'Hand spot by a coach', modality: 'hand-spot', minDays: null },
-  { name: 'Into the foam pit', modality: 'pit', minDays: null },
-  { name: 'Solo on the trampoline', modality: 'trampoline', minDays: null },
-  { name: 'In a competition routine', modality: 'routine', minDays: null },
+  {
+    name: 'Tuck jumps and timers',
+    modality: 'floor-drill',
+    criterion: 'Ten tuck jumps in a row, knees to the chest',
+    minDays: null,
+  },
+  {
+    name: 'Rotation in the spotting rig',
+    modality: 'spotting-rig',
+    criterion: 'Five rotations landed on the feet',
+    minDays: 7,
+  },
+  {
+    name: 'Hand spot by a coach',
+    modality: 'hand-spot',
+    criterion: 'Three in a row with a light spot',
+    minDays: null,
+  },
+  {
+    name: 'Into the foam pit',
+    modality: 'pit',
+    criterion: 'Five landed on the feet in the pit',
+    minDays: null,
+  },
+  {
+    name: 'Solo on the trampoline',
+    modality: 'trampoline',
+    criterion: 'Five solo, landed in the centre',
+    minDays: null,
+  },
+  {
+    name: 'In a competition routine',
+    modality: 'routine',
+    criterion: 'Within a full routine, twice',
+    minDays: null,
+  },
 ]
 
 /** A record as GET /records/:elementId answers it. */

@@ -154,8 +154,10 @@ describe('ProgressLogPanel', () => {
     await settle()
     expect(planned.props('value')).toBe(1)
     vi.mocked(api.recordEvent).mockResolvedValue({
+      eventId: eventIds[1]!,
       record: { ...recordDetail({ stepIndex: 4 }), paused: true, pauseReason: 'lost-skill' },
       checks: [],
+      replayed: false,
     })
     saveButton().click()
     await settle()
@@ -215,8 +217,10 @@ describe('ProgressLogPanel', () => {
 
     // The coach decides again: the next save is made against the state now on screen.
     vi.mocked(api.recordEvent).mockResolvedValue({
+      eventId: eventIds[1]!,
       record: recordDetail({ stepIndex: 1, lastEventId: eventIds[1]! }),
       checks: [],
+      replayed: false,
     })
     saveButton().click()
     await settle()

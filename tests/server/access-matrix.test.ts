@@ -414,6 +414,18 @@ const matrix: Record<string, Row> = {
       body: await stepEvent(f),
     }),
   },
+  'POST /squads/:squadId/progress-batch': {
+    allow: writers,
+    ok: 201,
+    request: async (f) => ({
+      path: `/squads/${f.squad.id}/progress-batch`,
+      body: {
+        elementId: await anyElement(f),
+        occurredOn: '2026-11-01',
+        entries: [{ athleteId: await athleteInSquad(f), elementId: await anyElement(f) }],
+      },
+    }),
+  },
   'GET /missing-skills': {
     allow: readers,
     ok: 200,

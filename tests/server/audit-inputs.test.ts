@@ -4,13 +4,10 @@ import type { Database } from '../../server/db/client.ts'
 import { athletes, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
-import {
-  appendHistory,
-  backfillRecordTimelines,
-  recordDetail,
-  recordEvent,
-  type HistoryEvent,
-} from '../../server/services/progress.ts'
+import { recordEvent } from '../../server/services/progress-events.ts'
+import { appendHistory, type HistoryEvent } from '../../server/services/progress-history.ts'
+import { recordDetail } from '../../server/services/progress-reads.ts'
+import { backfillRecordTimelines } from '../../server/services/progress-records.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import { freshDatabase } from '../support/database.ts'
 import { clubWithPeople, floorTucks } from '../support/fixtures.ts'

@@ -13,7 +13,7 @@ import {
 import { createAthlete } from '../../server/services/athletes.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { addMembership } from '../../server/services/members.ts'
-import { appendHistory } from '../../server/services/progress.ts'
+import { appendHistory } from '../../server/services/progress-history.ts'
 import { tablesWithClubId } from '../support/catalog.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'

@@ -36,6 +36,7 @@ const idsWithoutForeignKey: Record<string, string> = {
   'audit_runs.job_id': "a job of the queue, in pg-boss's own schema",
   'club_archives.job_id': "a job of the queue, in pg-boss's own schema",
   'report_pdfs.job_id': "a job of the queue, in pg-boss's own schema",
+  'progress_events.client_event_id': 'the id a tablet made for an entry, before any row existed',
 }
 
 /**

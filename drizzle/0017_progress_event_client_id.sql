@@ -1,0 +1,2 @@
+ALTER TABLE "progress_events" ADD COLUMN "client_event_id" uuid;--> statement-breakpoint
+CREATE UNIQUE INDEX "progress_events_client_event_idx" ON "progress_events" USING btree ("club_id","client_event_id");
