@@ -1,8 +1,9 @@
 import { defineStore } from 'pinia'
-import { reactive, ref } from 'vue'
+import { reactive, ref, watch } from 'vue'
 import type { RotationClass } from '@shared/domain/element'
 import type { Grid, RecordView } from '@shared/schemas/progress'
 import * as api from '@/api/squads'
+import { useOutboxStore } from './outbox'
 
 /** The grid filters as the controls hold them: a cleared select is null. */
 export interface GridFilterState {
@@ -13,6 +14,7 @@ export interface GridFilterState {
 /** A squad's athletes × elements grid, filtered on the server. */
 export const useSquadGridStore = defineStore('squadGrid', () => {
   const grid = ref<Grid | null>(null)
+  const outbox = useOutboxStore()
   const filters = reactive<GridFilterState>({ apparatus: null, rotationClass: null })
   /** Pairs nobody in the squad has started are left out unless asked for. */
   const hideUnstarted = ref(true)
@@ -28,7 +30,11 @@ export const useSquadGridStore = defineStore('squadGrid', () => {
     if (grid.value?.squad.id !== squadId) grid.value = null
     try {
       const answer = await api.getSquadGrid(clubId, squadId, { ...filters })
-      if (mine === serial) grid.value = answer
+      if (mine === serial) {
+        grid.value = answer
+        // Entries still on the tablet show as they will stand once sent.
+        for (const entry of outbox.entries) applyRecord(entry.predicted)
+      }
     } catch (err) {
       if (mine === serial) error.value = err instanceof Error ? err.message : String(err)
     } finally {
@@ -49,6 +55,15 @@ export const useSquadGridStore = defineStore('squadGrid', () => {
     if (i === -1 || j === -1 || !row) return
     row[j] = { step: record.stepIndex, paused: record.paused, flagged: record.flagged }
   }
+
+  // Entries kept on the tablet (read from IndexedDB after a reload, or just made) show in their
+  // cells as they will stand once sent.
+  watch(
+    () => outbox.entries,
+    (list) => {
+      for (const entry of list) applyRecord(entry.predicted)
+    },
+  )
 
   function resetFilters() {
     filters.apparatus = null
