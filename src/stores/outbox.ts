@@ -88,7 +88,10 @@ export const useOutboxStore = defineStore('outbox', () => {
     if (sending.value) return
     sending.value = true
     try {
-      for (const entry of [...waiting.value].sort((a, b) => a.seq - b.seq)) {
+      for (const { clientEventId } of [...waiting.value].sort((a, b) => a.seq - b.seq)) {
+        // Read afresh: sending an earlier entry rewrites what this one expects.
+        const entry = entries.value.find((e) => e.clientEventId === clientEventId)
+        if (!entry || entry.status !== 'waiting') continue
         const key = recordKey(entry)
         const heldBack = refused.value.some((r) => recordKey(r) === key && r.seq < entry.seq)
         if (heldBack) continue
