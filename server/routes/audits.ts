@@ -16,16 +16,12 @@ import { sendCsv } from '../http/responses.ts'
 import { exportFileName, gapsCsv, headlineCsv } from '../services/audit-exports.ts'
 import { clubAgeThresholds, clubProfiles } from '../services/audit-inputs.ts'
 import {
-  boardSummary,
   createProfile,
   deleteProfile,
-  getReport,
-  listAudits,
-  publish,
-  recheck,
   saveAgeThresholds,
   saveProfile,
-} from '../services/audits.ts'
+} from '../services/audit-profiles.ts'
+import { boardSummary, getReport, listAudits, publish, recheck } from '../services/audits.ts'
 import type { ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such audit.') })

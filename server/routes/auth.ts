@@ -21,7 +21,7 @@ import {
   membershipViews,
   requestPasswordReset,
 } from '../services/accounts.ts'
-import { acceptInvitation, previewInvitation } from '../services/members.ts'
+import { acceptInvitation, previewInvitation } from '../services/invitations.ts'
 
 /** The client's address as Express resolves it (through X-Forwarded-For only with TRUST_PROXY). */
 export const clientOf = (req: Request) => req.ip ?? req.socket.remoteAddress ?? 'unknown'

@@ -3,13 +3,11 @@ import { invitationInputSchema, membershipUpdateSchema } from '../../shared/sche
 import { publicOrigin, type AppContext } from '../context.ts'
 import {
   createInvitation,
-  endMembership,
   listInvitations,
-  listMembers,
   resendInvitation,
-  updateMembership,
   withdrawInvitation,
-} from '../services/members.ts'
+} from '../services/invitations.ts'
+import { endMembership, listMembers, updateMembership } from '../services/members.ts'
 import type { ClubRoute } from './club-routes.ts'
 
 const userParams = z.object({ userId: z.string().min(1).max(64) })

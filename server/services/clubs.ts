@@ -3,7 +3,7 @@ import { clubSlugFromName, clubSlugMaxLength, slugify } from '../../shared/domai
 import { clubInputSchema, type ClubInput } from '../../shared/schemas/clubs.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { clubs } from '../db/schema.ts'
-import { installAuditDefaults } from './audits.ts'
+import { installAuditDefaults } from './audit-profiles.ts'
 import { installStandardCatalogue } from './catalogue.ts'
 
 /** A new club, starting from the standard catalogue and progression templates. */

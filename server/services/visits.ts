@@ -10,7 +10,7 @@ import { clubs, invitations, memberships, squads, users } from '../db/schema.ts'
 import { recommendations, visitSquads, visits } from '../db/schema-visits.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { enqueueMail } from '../mail/outbox.ts'
-import { assertInvitable, insertInvitation } from './members.ts'
+import { assertInvitable, insertInvitation } from './invitations.ts'
 
 // Visits: the director schedules, changes and cancels them; a clinician reads their own.
 

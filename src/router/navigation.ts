@@ -15,9 +15,14 @@ export interface NavItem {
  */
 export function navigationItems(me: Me | null, membership: MembershipView | null): NavItem[] {
   if (!me || !membership || !membership.accessOpen) return []
-  const items: NavItem[] = [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
-  if (membership.role === 'clinician')
-    items.push({ key: 'visit', label: 'Your visit', to: { name: 'visit' } })
+  // A clinician's and a board member's own page is their visit and the board summary (the
+  // router sends them there from home), so an Overview entry would lead to the same page twice.
+  const items: NavItem[] =
+    membership.role === 'clinician'
+      ? [{ key: 'visit', label: 'Your visit', to: { name: 'visit' } }]
+      : membership.role === 'board'
+        ? []
+        : [{ key: 'home', label: 'Overview', to: { name: 'home' } }]
   // Board members see aggregates only; the catalogue is the working tool of the gym floor.
   if (membership.role !== 'board') {
     items.push({ key: 'catalogue', label: 'Catalogue', to: { name: 'catalogue' } })

@@ -29,6 +29,12 @@ export const progressRoutes: RouteRecordRaw[] = [
     meta: { title: 'Log progress', roles: writers },
   },
   {
+    path: '/log/squad',
+    name: 'squad-log',
+    component: () => import('@/views/SquadLogView.vue'),
+    meta: { title: 'Log a whole squad', roles: writers, nav: 'progress-log' },
+  },
+  {
     path: '/athletes/:athleteId',
     name: 'athlete',
     component: () => import('@/views/AthleteView.vue'),

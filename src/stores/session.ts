@@ -3,6 +3,7 @@ import { computed, ref } from 'vue'
 import type { Me, SignInInput } from '@shared/schemas/auth'
 import * as api from '@/api/auth'
 import { ApiError, setUnauthorizedListener } from '@/api/http'
+import { forgetRecentPicks } from '@/composables/recentPicks'
 
 /** Who is signed in, their clubs and the club they are working in. */
 export const useSessionStore = defineStore('session', () => {
@@ -19,6 +20,8 @@ export const useSessionStore = defineStore('session', () => {
 
   function clear() {
     me.value = null
+    // Nothing about athletes stays on the device once the session is over.
+    forgetRecentPicks()
   }
   setUnauthorizedListener(clear)
 

@@ -32,6 +32,19 @@ describe('the catalogue in the navigation', () => {
     expect(labels.includes('Catalogue')).toBe(listed)
   })
 
+  // The router sends a clinician from home to their visit and a board member to the board
+  // summary: each entry of their navigation leads to a page of its own.
+  it.each<[Role, string[], string[]]>([
+    ['director', ['Overview'], []],
+    ['coach', ['Overview'], []],
+    ['clinician', ['Your visit'], ['Overview']],
+    ['board', ['Board summary'], ['Overview']],
+  ])('gives the %s %j and no %j leading to the same page again', (role, listed, absent) => {
+    const labels = navigationItems(...as(role)).map((item) => item.label)
+    for (const label of listed) expect(labels).toContain(label)
+    for (const label of absent) expect(labels).not.toContain(label)
+  })
+
   it('lets only the director open the element form', () => {
     const rolesOf = (name: string) => routes.find((r) => r.name === name)?.meta?.roles
     expect(rolesOf('catalogue')).toEqual(['director', 'coach', 'clinician'])

@@ -70,6 +70,8 @@ describe('ProgressLogPanel', () => {
     await settle()
     // The next step is proposed, which skips nothing.
     expect(byTest('skip-reason')).toBeNull()
+    // The pass criterion of the step being recorded (step 2 of the progression above).
+    expect(byTest('log-criterion')?.textContent).toContain('Five rotations landed on the feet')
     expect(saveButton().disabled).toBe(false)
 
     vi.mocked(api.checkEvent).mockResolvedValue({
@@ -111,7 +113,7 @@ describe('ProgressLogPanel', () => {
     )
   })
 
-  it('shows the proposed step-down of a lost-skill pause with the safety caution, and lets the coach change it', async () => {
+  it('shows the proposed step-down of a lost-skill pause with the safety caution once, and lets the coach change it', async () => {
     vi.mocked(api.getRecordDetail).mockResolvedValue(
       recordDetail({ stepIndex: 4, highestStepIndex: 4 }),
     )
@@ -142,8 +144,9 @@ describe('ProgressLogPanel', () => {
     const proposal = byTest('step-down')?.textContent ?? ''
     expect(proposal).toContain('Proposed step-down')
     expect(proposal).toContain('step 3 · hand spot by a coach')
-    expect(proposal).toContain(safetyCaution)
-    expect(byTest('check-lost-skill-step-down')?.textContent).toContain(safetyCaution)
+    // The caution stands once on the screen, not again in the proposal or the check.
+    expect(document.body.textContent?.split(safetyCaution).length).toBe(2)
+    expect(byTest('safety-note')?.textContent).toContain(safetyCaution)
     const planned = wrapper
       .findAllComponents(NSelect)
       .find((s) => s.attributes('data-test') === 'planned-step')!

@@ -44,6 +44,10 @@ export const signedInVisits: Record<string, SignedInVisit> = {
   squads: { path: '/squads', roles: staff },
   squad: { path: '/squads/:squadId', roles: staff },
   'progress-log': { path: '/log', roles: ['director', 'coach'] },
+  'squad-log': {
+    path: '/log/squad?squadId=:squadId&elementId=:elementId&pair=1',
+    roles: ['director', 'coach'],
+  },
   athlete: { path: '/athletes/:athleteId', roles: staff },
   'missing-skills': { path: '/missing-skills', roles: staff },
   audits: { path: '/audits', roles: staff },

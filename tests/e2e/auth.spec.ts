@@ -24,8 +24,8 @@ const roles = [
     hidden: [] as string[],
   },
   { email: 'coach@demo.example', sees: ['Overview'], hidden: ['Members'] },
-  { email: 'clinician@demo.example', sees: ['Overview'], hidden: ['Members'] },
-  { email: 'board@demo.example', sees: ['Overview'], hidden: ['Members'] },
+  { email: 'clinician@demo.example', sees: ['Your visit'], hidden: ['Members', 'Overview'] },
+  { email: 'board@demo.example', sees: ['Board summary'], hidden: ['Members', 'Overview'] },
 ]
 
 for (const role of roles) {

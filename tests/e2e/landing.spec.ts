@@ -60,6 +60,13 @@ test('the clinician lands on their visit: its dates and the squads it covers', a
   await expect(visit.getByRole('link', { name: 'Kites' })).toBeVisible()
   for (const other of demoSquads.filter((s) => s.name !== 'Kites'))
     await expect(visit.getByRole('link', { name: other.name })).toHaveCount(0)
+  // The figures above the squad-limited gap list are the covered squad's; the club's own average
+  // only as context, labelled as such.
+  const squadLags = page.locator('[data-test="covered-squad-lags"]')
+  await expect(squadLags).toContainText('Kites:')
+  for (const other of demoSquads.filter((s) => s.name !== 'Kites'))
+    await expect(squadLags).not.toContainText(`${other.name}:`)
+  await expect(page.locator('[data-test="club-lag"]')).toContainText(/the whole (club|squad)/)
   await shoot(page, 'clinician')
 })
 

@@ -8,6 +8,7 @@ import { recordEvent } from '../../server/services/progress-events.ts'
 import { appendHistory, type HistoryEvent } from '../../server/services/progress-history.ts'
 import { recordDetail } from '../../server/services/progress-reads.ts'
 import { backfillRecordTimelines } from '../../server/services/progress-records.ts'
+import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import { freshDatabase } from '../support/database.ts'
 import { clubWithPeople, floorTucks } from '../support/fixtures.ts'
@@ -197,5 +198,9 @@ describe('the audit’s inputs as of a date', () => {
     )
     expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
     expect(inTransaction.paces).toEqual(inputs.paces)
+    // The hash reads the records' texts as they were gathered, batch by batch; the same records
+    // in another order, worked out afresh and sorted, hash the same.
+    const reordered = { ...inputs, records: [...inputs.records].reverse() }
+    expect(await auditInputHash(inputs)).toBe(await auditInputHash(reordered))
   }, 60_000)
 })
