@@ -1,6 +1,7 @@
 import { fileURLToPath, URL } from 'node:url'
 import vue from '@vitejs/plugin-vue'
 import { defineConfig, type Plugin } from 'vite'
+import { VitePWA } from 'vite-plugin-pwa'
 
 // Naive UI leaves a few things unnamed that assistive technology needs named, in code no prop
 // reaches: each rewrite below puts the missing attribute in. The build fails if a new Naive UI
@@ -53,8 +54,58 @@ function naiveAria(): Plugin {
   }
 }
 
+/**
+ * The API answers a tablet needs to log progress offline after a reload: who is signed in, the
+ * squads, the roster, the catalogue, the squad grid and a record's detail (with the open
+ * recommendations the grid marks). Nothing else from `/api` is kept; sign-out deletes the cache
+ * (`apiCacheName` in src/offline/caches.ts).
+ */
+const offlineApi = [
+  /\/api\/auth\/me$/,
+  /\/api\/clubs\/[^/]+\/squads(\/[^/?]+(\/grid)?)?(\?.*)?$/,
+  /\/api\/clubs\/[^/]+\/elements(\?.*)?$/,
+  /\/api\/clubs\/[^/]+\/athletes(\?.*)?$/,
+  /\/api\/clubs\/[^/]+\/athletes\/[^/]+\/records\/[^/?]+$/,
+  /\/api\/clubs\/[^/]+\/recommendations(\?.*)?$/,
+]
+
+/** The app installs as a web app; its service worker keeps the app shell for offline use. */
+const pwa = VitePWA({
+  injectRegister: null,
+  registerType: 'autoUpdate',
+  manifest: {
+    name: 'Twofold',
+    short_name: 'Twofold',
+    description: 'Forward and backward progressions for gymnastics clubs',
+    theme_color: '#1f4f4a',
+    background_color: '#ffffff',
+    display: 'standalone',
+    start_url: '/',
+    icons: [{ src: '/favicon.svg', sizes: 'any', type: 'image/svg+xml', purpose: 'any' }],
+  },
+  workbox: {
+    globPatterns: ['**/*.{js,css,html,svg,woff2}'],
+    navigateFallback: '/index.html',
+    navigateFallbackDenylist: [/^\/api\//],
+    cleanupOutdatedCaches: true,
+    clientsClaim: true,
+    skipWaiting: true,
+    runtimeCaching: offlineApi.map((urlPattern) => ({
+      urlPattern,
+      handler: 'NetworkFirst' as const,
+      method: 'GET' as const,
+      options: {
+        cacheName: 'twofold-api',
+        networkTimeoutSeconds: 5,
+        cacheableResponse: { statuses: [200] },
+        expiration: { maxEntries: 400, maxAgeSeconds: 7 * 24 * 3600 },
+      },
+    })),
+  },
+})
+
 export default defineConfig({
-  plugins: [vue(), naiveAria()],
+  plugins: [vue(), naiveAria(), pwa],
   resolve: {
     alias: {
       '@': fileURLToPath(new URL('./src', import.meta.url)),

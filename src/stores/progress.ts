@@ -1,11 +1,36 @@
 import { defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import type { ProgressEventInput, RecordDetail, RecordView } from '@shared/schemas/progress'
+import type {
+  EventResult,
+  ProgressEventInput,
+  RecordDetail,
+  RecordView,
+} from '@shared/schemas/progress'
 import type { CatalogueElement } from '@shared/schemas/elements'
 import { listElements } from '@/api/elements'
+import { ApiError } from '@/api/http'
 import * as api from '@/api/progress'
+import { newEntryId, predictRecord } from '@/offline/predict'
+import { useOutboxStore } from './outbox'
+
+/** A save's answer: the server's, or, with `queued`, the entry kept on the tablet to send later. */
+export type SaveOutcome = EventResult & { queued?: boolean }
 
 const keyOf = (athleteId: string, elementId: string) => `${athleteId}|${elementId}`
+
+const blankRecord = (athleteId: string, elementId: string): RecordView => ({
+  athleteId,
+  elementId,
+  stepIndex: null,
+  highestStepIndex: null,
+  stepReachedOn: null,
+  paused: false,
+  pauseReason: null,
+  plannedStepIndex: null,
+  lastEventOn: null,
+  lastEventId: null,
+  flagged: false,
+})
 
 /**
  * The log flow of the gym floor: the catalogue to pick from, the record being logged (its
@@ -23,6 +48,8 @@ export const useProgressStore = defineStore('progress', () => {
   const detailError = ref<string | null>(null)
 
   const elementById = computed(() => new Map(elements.value.map((e) => [e.id, e])))
+  const outbox = useOutboxStore()
+  outbox.onSent((result) => adoptRecord(result.record))
 
   /** The club's catalogue, loaded once per club (it changes rarely during a session). */
   async function loadElements(clubId: string, options: { force?: boolean } = {}) {
@@ -48,8 +75,10 @@ export const useProgressStore = defineStore('progress', () => {
     detailError.value = null
     try {
       const loaded = await api.getRecordDetail(clubId, athleteId, elementId)
+      // Entries still on the tablet are part of the record as the coach knows it.
+      const kept = outbox.latestFor(athleteId, elementId)
       // A coach who picked another element meanwhile must not see this one's answer.
-      if (detailKey.value === key) detail.value = loaded
+      if (detailKey.value === key) detail.value = kept ? { ...loaded, ...kept.predicted } : loaded
     } catch (err) {
       if (detailKey.value === key)
         detailError.value = err instanceof Error ? err.message : String(err)
@@ -70,15 +99,54 @@ export const useProgressStore = defineStore('progress', () => {
   }
 
   /**
-   * Saves an event, shows the new state at once and reloads the events. A 409 (someone else
-   * wrote first) and a missing skip reason come through as the ApiError.
+   * Saves an event under an id made here, and shows the new state at once. Offline, or while
+   * earlier entries still wait, the entry is kept on the tablet instead and sent in order later
+   * (`queued`, with the state it will give). A 409 (someone else wrote first) and a missing skip
+   * reason come through as the ApiError.
    */
-  async function save(clubId: string, athleteId: string, input: ProgressEventInput) {
-    const result = await api.recordEvent(clubId, athleteId, input)
-    adoptRecord(result.record)
-    if (detailKey.value === keyOf(athleteId, input.elementId))
-      await loadDetail(clubId, athleteId, input.elementId)
-    return result
+  async function save(
+    clubId: string,
+    athleteId: string,
+    input: ProgressEventInput,
+    names: { athleteName?: string; elementName?: string } = {},
+  ): Promise<SaveOutcome> {
+    const entry = { ...input, clientEventId: input.clientEventId ?? newEntryId() }
+    if (outbox.online && outbox.waiting.length === 0) {
+      try {
+        const result = await api.recordEvent(clubId, athleteId, entry)
+        adoptRecord(result.record)
+        if (detailKey.value === keyOf(athleteId, input.elementId))
+          await loadDetail(clubId, athleteId, input.elementId)
+        return result
+      } catch (err) {
+        // Only an unreachable server keeps the entry; every answer of the server stands.
+        if (!(err instanceof ApiError && err.status === 0)) throw err
+      }
+    }
+    const base =
+      detailKey.value === keyOf(athleteId, input.elementId) && detail.value
+        ? detail.value
+        : blankRecord(athleteId, input.elementId)
+    const { steps: _steps, events: _events, ...before } = { steps: [], events: [], ...base }
+    const predicted = predictRecord(before, entry)
+    await outbox.enqueue({
+      clientEventId: entry.clientEventId,
+      clubId,
+      athleteId,
+      athleteName: names.athleteName ?? '',
+      elementName: names.elementName ?? '',
+      input: entry,
+      predicted,
+    })
+    adoptRecord(predicted)
+    if (outbox.online) void outbox.flush()
+    return {
+      eventId: entry.clientEventId,
+      record: predicted,
+      checks: [],
+      replayed: false,
+      queued: true,
+    }
   }
 
   /** Shows a record state the server answered (after a save, or with a 409). */

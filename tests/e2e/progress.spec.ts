@@ -1,6 +1,7 @@
 import { expect, test } from '@playwright/test'
 import { screenshot } from './support.ts'
 import { signIn } from './support-auth.ts'
+import { scrollToCell } from './support-grid.ts'
 
 test('a coach logs a step on a tablet and sees the squad grid update', async ({ browser }) => {
   const context = await browser.newContext({
@@ -30,9 +31,8 @@ test('a coach logs a step on a tablet and sees the squad grid update', async ({ 
 
   await page.goto('/squads')
   await page.getByRole('link', { name: 'Kites' }).first().click()
-  const cell = page
-    .getByRole('row', { name: /^Dewhurst, Ada/ })
-    .locator('[title^="Ada: Aerial cartwheel step 1 of"]')
+  const grid = page.getByRole('region', { name: /^Progress grid of Kites/ })
+  const cell = await scrollToCell(grid, '[title^="Ada Dewhurst: Aerial cartwheel step 1 of"]')
   await expect(cell).toBeVisible()
   await screenshot(page, 'squad-grid-tablet')
   await context.close()
