@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest'
+import { afterEach, describe, expect, it, vi } from 'vitest'
 import { auditInputHash, CanonicalList, canonicalJson } from '../../shared/domain/audit/hashing.ts'
 import type { AuditInputs, AuditRecord } from '../../shared/domain/audit/types.ts'
 
@@ -16,6 +16,10 @@ const record = (athleteId: string, elementId: string, stepIndex: number): AuditR
 const a1 = '{"athleteId":"a","elementId":"e1","stepIndex":1}'
 const a2 = '{"athleteId":"a","elementId":"e2","stepIndex":0}'
 const b1 = '{"athleteId":"b","elementId":"e1","stepIndex":3}'
+
+afterEach(() => {
+  vi.restoreAllMocks()
+})
 
 describe('canonical text of a list whose item texts were worked out as it was built', () => {
   it('is the sorted text whether the items came in order or not', () => {
@@ -36,6 +40,32 @@ describe('canonical text of a list whose item texts were worked out as it was bu
     list.push(record('b', 'e1', 3))
     list.items.push(record('a', 'e1', 1))
     expect(canonicalJson(list.items)).toBe(`[${a1},${b1}]`)
+  })
+
+  it('uses the texts worked out when the items were added', () => {
+    // Items must not change once added (the audit's records never do); changing one behind the
+    // list shows that its text was not worked out again.
+    const list = new CanonicalList<AuditRecord>()
+    const item = record('a', 'e1', 1)
+    list.push(item)
+    item.stepIndex = 5
+    expect(canonicalJson(list.items)).toBe(`[${a1}]`)
+  })
+
+  it('does not sort again texts that are already in order, equal neighbours included', () => {
+    // The point of the list (bench/audit.bench.ts): 100,000 records arrive in order, and
+    // checking that is one pass where sorting is many.
+    const list = new CanonicalList<AuditRecord>()
+    for (const r of [record('a', 'e1', 1), record('a', 'e1', 1), record('b', 'e1', 3)]) {
+      list.push(r)
+    }
+    const sort = vi.spyOn(Array.prototype, 'sort')
+    expect(canonicalJson(list.items)).toBe(`[${a1},${a1},${b1}]`)
+    expect(sort).not.toHaveBeenCalled()
+    const shuffled = new CanonicalList<AuditRecord>()
+    for (const r of [record('b', 'e1', 3), record('a', 'e1', 1)]) shuffled.push(r)
+    expect(canonicalJson(shuffled.items)).toBe(`[${a1},${b1}]`)
+    expect(sort).toHaveBeenCalledTimes(1)
   })
 
   it('gives the same input hash as a plain array of the same records in another order', async () => {
