@@ -15,8 +15,8 @@ let pool: Piscina | undefined
 
 /**
  * A solve is synchronous WebAssembly (HiGHS, up to about a second in its two stages): it runs on
- * one worker thread of the web process, started on first use and ended after a minute without
- * work, so the request loop keeps answering meanwhile. Solves queue for the one thread; the
+ * one worker thread of the web process, started on first use and kept until shutdown, so the
+ * request loop keeps answering meanwhile. Solves queue for the one thread; the
  * thread runs at a lower priority than the loop (`planner-solver.worker.ts`).
  */
 export async function solvePlanOffThread(
@@ -25,9 +25,9 @@ export async function solvePlanOffThread(
 ): Promise<SolvedPlan> {
   pool ??= new Piscina({
     filename: workerUrl.href,
-    minThreads: 0,
+    // Once started, the thread stays (warm: see the worker) until the server closes.
+    minThreads: 1,
     maxThreads: 1,
-    idleTimeout: 60_000,
     execArgv,
   })
   const task: SolveTask = { model, timeLimitSeconds }
