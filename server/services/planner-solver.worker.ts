@@ -17,8 +17,9 @@ try {
 
 /**
  * A made-up session of the usual size (20 athletes, 5 stations, 4 blocks) solved once before the
- * thread's first task: a thread's first solve runs HiGHS's WebAssembly before the engine has optimised
- * it, several times slower, and its stages' time limits could then cut a coach's first plan short.
+ * thread's first task: a thread's first solve runs HiGHS's WebAssembly before the engine has
+ * optimised it, several times slower, and its stages' time limits could then cut a coach's first
+ * plan short.
  */
 function warmUpModel(): PlanModel {
   const modalities: Modality[] = ['trampoline', 'tumble-track', 'pit', 'floor-drill', 'hand-spot']
