@@ -6,7 +6,8 @@ import type { Modality } from '../shared/domain/element.ts'
 
 // `npm run bench -- planner`: 40 athletes × 8 stations × 90 minutes planned (both solver stages,
 // the block layout and the turns) against a budget of 1 s, with the plan's total against the
-// solver's proven bound (the optimality gap). The baseline is the same plan's figures alone.
+// solver's proven bound (the optimality gap), and the laid-out plan's smallest number of turns
+// against the solver's max-min. The baseline is the same plan's figures alone.
 
 const modalities: Modality[] = [
   'trampoline',
@@ -91,7 +92,11 @@ export default async function plannerBench() {
   )
   console.log(`  baseline (the figures alone): ${baseline.toFixed(2)} ms`)
   console.log(
-    `  plan: ${last.total} turns, smallest ${last.min} (the solver's ${last.solverMin} before the block layout); solver bound ${last.bound}; optimality gap ${(last.gap * 100).toFixed(2)} %`,
+    `  plan: ${last.total} turns; solver bound ${last.bound}; optimality gap ${(last.gap * 100).toFixed(2)} %`,
+  )
+  const short = runs.filter((r) => r.min < r.solverMin).length
+  console.log(
+    `  smallest number of turns: plan ${last.min}, solver's optimum ${last.solverMin} (${short ? `SHORT in ${short} of ${runs.length} runs` : 'equal in every run'})`,
   )
   console.log(`  ${worst < 1000 ? 'within' : 'OVER'} the 1 s budget`)
 }

@@ -12,6 +12,7 @@ import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { createMailer } from './mail/mailer.ts'
 import { projectDir } from './paths.ts'
+import { closePlannerPool } from './services/planner-pool.ts'
 
 export const defaultClientDir = join(projectDir, 'dist')
 
@@ -94,6 +95,7 @@ export async function serve(
             await database.close()
           })(),
           mailer.close(),
+          closePlannerPool(),
         ]).then(() => resolve())
       })
       server.closeIdleConnections()

@@ -31,6 +31,7 @@ import {
   pagedCsvFile,
   type ArchiveFile,
 } from './archive-files.ts'
+import { plannerArchiveFiles } from './archive-planner.ts'
 import { visitArchiveFiles } from './archive-visits.ts'
 
 type AthleteRow = typeof athletes.$inferSelect & { squad: string }
@@ -238,6 +239,7 @@ export async function archiveFiles(
           .where(ofClub(ageThresholds))
           .orderBy(asc(ageThresholds.discipline)),
     ),
+    ...plannerArchiveFiles(db, clubId),
     ...auditFiles(db, clubId, auditList),
   ]
 }

@@ -1,7 +1,8 @@
 import type { Highs } from 'highs'
 import { blockBound } from '../../shared/domain/planner/bound.ts'
 import { pairs, planLp, readCounts, readSpotted } from '../../shared/domain/planner/lp.ts'
-import { scheduleBlocks } from '../../shared/domain/planner/schedule.ts'
+import { repairLayout } from '../../shared/domain/planner/repair.ts'
+import { scheduleBlocks, spottedBlocks } from '../../shared/domain/planner/schedule.ts'
 import { shareTurns } from '../../shared/domain/planner/turns.ts'
 import type { Placement, PlanModel, SolverReport } from '../../shared/domain/planner/types.ts'
 
@@ -79,7 +80,9 @@ function runStage(
 /**
  * Solves the plan lexicographically: first the largest smallest-number-of-turns any athlete gets,
  * then, with that held as a floor for everyone, the largest total; then lays the solution out
- * block by block and shares the turns out (the same function the screen uses after a move). The
+ * block by block, repairs the layout (for at most the time limit again) where it left the least
+ * served athlete short of the solver's smallest, and shares the turns out (the same function the
+ * screen uses after a move). The
  * report's gap compares the plan's total with the solver's proven bound on any plan's total.
  */
 export async function solvePlan(model: PlanModel, timeLimitSeconds = 0.4): Promise<SolvedPlan> {
@@ -99,9 +102,11 @@ export async function solvePlan(model: PlanModel, timeLimitSeconds = 0.4): Promi
     runStage(highs, planLp(model, minTurns), timeLimitSeconds, first?.values) ??
     (first && { ...first, status: 'timeLimit', bound: blockBound(model) })
   if (!second) throw new Error('The planner’s solver found no plan in its time.')
+  const spotted = readSpotted(model, second.values)
+  const laidOut = scheduleBlocks(model, readCounts(model, second.values), spotted)
   const placements = shareTurns(
     model,
-    scheduleBlocks(model, readCounts(model, second.values), readSpotted(model, second.values)),
+    repairLayout(model, laidOut, spottedBlocks(model, spotted), minTurns, timeLimitSeconds * 1000),
   )
   const total = placements.reduce((sum, p) => sum + p.turns, 0)
   const bound = Math.max(

@@ -15,7 +15,7 @@ import { plannerStations } from '../db/schema-planner.ts'
 import { athletes, audits, elements, elementSteps, progressRecords } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { unpackAuditResult } from './audit-storage.ts'
-import { solvePlan } from './planner-solver.ts'
+import { solvePlanOffThread } from './planner-pool.ts'
 import { assertCanWriteSquad } from './scope.ts'
 
 /** How many of an athlete's largest forward gaps the default focus takes. */
@@ -292,7 +292,7 @@ export async function planSession(
   raw: unknown,
 ): Promise<PlanResult> {
   const { model, focusSource } = await buildPlanModel(db, access, raw)
-  const solved = await solvePlan(model)
+  const solved = await solvePlanOffThread(model)
   const reasons = explainInfeasible(model)
   if (!reasons.length && solved.minTurns < 1)
     reasons.push('Not every athlete can get a turn with these stations, minutes and coaches.')

@@ -3,6 +3,7 @@ import pino from 'pino'
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { purgeExpired } from '../../server/auth/purge.ts'
+import { plannerStations, sessionPlans } from '../../server/db/schema-planner.ts'
 import type { Database } from '../../server/db/client.ts'
 import {
   clubArchiveFiles,
@@ -57,6 +58,8 @@ const archivedIn: Record<string, string> = {
   recommendation_events: 'recommendation-history.csv',
   clips: 'clips.csv',
   clip_reviews: 'clip-reviews.csv',
+  planner_stations: 'planner-stations.csv',
+  session_plans: 'session-plans.json',
 }
 /** Tables with club_id whose rows the archive leaves out, with the reason. */
 const leftOut: Record<string, string> = {
@@ -68,8 +71,6 @@ const leftOut: Record<string, string> = {
   club_archive_files: 'the archives themselves',
   report_pdfs: 'PDF reports drawn for one person for an hour; the audits are in the archive',
   report_pdf_files: 'PDF reports drawn for one person for an hour; the audits are in the archive',
-  planner_stations: 'the gym set-up the session planner reuses: not yet in the archive',
-  session_plans: 'session plans: not yet in the archive; the progress they recorded is',
 }
 
 // A small club with known data and a second club (tests/support/archive-club.ts).
@@ -86,6 +87,47 @@ beforeAll(async () => {
   t = await testApp(database)
   c = await archiveClub(database, t)
   ;({ fx, director, base } = c)
+  // The planner's rows: two stations and a saved plan here, a station of the other club.
+  await database.db.insert(plannerStations).values([
+    {
+      clubId: fx.club.id,
+      name: 'Big trampoline',
+      modality: 'trampoline',
+      capacity: 1,
+      secondsPerTurn: 40,
+      needsSpotter: false,
+    },
+    {
+      clubId: fx.club.id,
+      name: 'Hand spot',
+      modality: 'hand-spot',
+      capacity: 1,
+      secondsPerTurn: 30,
+      needsSpotter: true,
+    },
+    {
+      clubId: c.other.club.id,
+      name: 'Their pit',
+      modality: 'pit',
+      capacity: 2,
+      secondsPerTurn: 20,
+      needsSpotter: false,
+    },
+  ])
+  await database.db.insert(sessionPlans).values({
+    clubId: fx.club.id,
+    squadId: fx.squad.id,
+    sessionDate: '2026-05-04',
+    model: {
+      minutes: 20,
+      blocks: 2,
+      changeoverSeconds: 60,
+      coaches: 1,
+      stations: [],
+      athletes: [],
+    },
+    placements: [],
+  })
 })
 afterAll(async () => {
   await t.close()
@@ -170,6 +212,22 @@ describe('a club archive', () => {
       const listed = manifest.files.find((f) => f.name === file)
       expect(listed?.rows, `${table} in ${file}`).toBe(rows[0]!.n)
     }
+  })
+
+  it('holds the gym’s stations and the saved session plans of this club alone', () => {
+    const stations = csvRows(files.get('planner-stations.csv')!)
+    expect(stations.map((r) => [r.name, r.modality, r.needsSpotter])).toEqual([
+      ['Big trampoline', 'trampoline', 'false'],
+      ['Hand spot', 'hand-spot', 'true'],
+    ])
+    const plans = JSON.parse(files.get('session-plans.json')!.toString()) as {
+      squadId: string
+      sessionDate: string
+      model: { minutes: number }
+    }[]
+    expect(plans.map((p) => [p.squadId, p.sessionDate, p.model.minutes])).toEqual([
+      [fx.squad.id, '2026-05-04', 20],
+    ])
   })
 
   it('holds the full history of events, the correction and the event it voids included', async () => {

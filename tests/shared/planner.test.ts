@@ -99,10 +99,13 @@ describe('shareTurns', () => {
     const mm = model({ minutes: 10, blocks: 2, stations: [tramp, floor], athletes: both })
     const start = shareTurns(mm, [...at(0), ...at(1)])
     expect(planFigures(mm, start).totalTurns).toBe(20)
-    // Athlete 3 to the floor in block 1: the trampoline gives 5 + 5, the floor 10 (300 s / 30 s).
+    // Athlete 3 to the floor in block 1: the trampoline gives athletes 1 and 2 5 each there (two
+    // places), the floor 10 to athlete 3 (300 s / 30 s). Block 2's 10 trampoline turns go to
+    // whoever has fewest: athletes 1 and 2 take 5 each (their most), athlete 3 none: 10, 10, 10.
+    // (Shared block by block, block 2 went 4, 3, 3 and athlete 2 ended on 8.)
     const moved = moveAthlete(mm, start, both[2]!.id, 0, floor.id)
     const figures = planFigures(mm, moved)
-    expect(figures.athletes.map((a) => a.turns)).toEqual([5 + 4, 5 + 3, 10 + 3])
+    expect(figures.athletes.map((a) => a.turns)).toEqual([5 + 5, 5 + 5, 10 + 0])
     expect(figures.totalTurns).toBe(30)
     expect(figures.totalTurns).toBeLessThanOrEqual(figures.physicalBound)
     expect(() => moveAthlete(mm, start, both[2]!.id, 0, station(9, 'pit', 1, 30).id)).toThrow()

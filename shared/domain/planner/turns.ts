@@ -1,58 +1,18 @@
-import { optionAt, stationBlockTurns, turnsPerBlock } from './model.ts'
+import { optionAt } from './model.ts'
+import { fairTurns } from './share.ts'
 import type { Placement, PlanModel } from './types.ts'
-
-interface Member {
-  placement: Placement
-  order: number
-}
 
 /**
  * Shares out the turns of every station in every block among the athletes placed there: each
- * athlete takes at most the station's turns per block (one turn at a time), and when the station
- * cannot give everyone that many, its turns (athletes at once × turns per block) are shared as
- * evenly as whole turns allow, the odd ones going to those with the fewest turns so far in the
- * session. The solver's plan and every move the coach makes on screen go through it, so the
- * figures are always computed the same way.
+ * athlete takes at most the station's turns per block (one turn at a time), and where a station
+ * has more athletes than places, its turns (athletes at once × turns per block) are shared over
+ * the whole session so that the athlete with the fewest turns gets as many as the placements
+ * allow, then the next (`fairTurns`). The solver's plan and every move the coach makes on screen
+ * go through it, so the figures are always computed the same way.
  */
 export function shareTurns(model: PlanModel, placements: readonly Placement[]): Placement[] {
-  const stationIndex = new Map(model.stations.map((s, i) => [s.id, i]))
-  const athleteOrder = new Map(model.athletes.map((a, i) => [a.id, i]))
-  const totals = new Map<string, number>()
-  const out = placements.map((p) => ({ ...p, turns: 0 }))
-  const cellsByBlock = new Map<number, Map<string, Member[]>>()
-  out.forEach((p) => {
-    if (!stationIndex.has(p.stationId) || !athleteOrder.has(p.athleteId)) return
-    const block = cellsByBlock.get(p.block) ?? new Map<string, Member[]>()
-    cellsByBlock.set(p.block, block)
-    const cell = block.get(p.stationId) ?? []
-    cell.push({ placement: p, order: athleteOrder.get(p.athleteId)! })
-    block.set(p.stationId, cell)
-  })
-  for (const b of [...cellsByBlock.keys()].sort((x, y) => x - y)) {
-    const given: [Placement, number][] = []
-    for (const [stationId, members] of cellsByBlock.get(b)!) {
-      const station = model.stations[stationIndex.get(stationId)!]!
-      const perAthlete = turnsPerBlock(model, station)
-      const available = stationBlockTurns(model, station)
-      const ordered = [...members].sort(
-        (x, y) =>
-          (totals.get(x.placement.athleteId) ?? 0) - (totals.get(y.placement.athleteId) ?? 0) ||
-          x.order - y.order,
-      )
-      const base = Math.min(perAthlete, Math.floor(available / members.length))
-      let spare = available - base * members.length
-      for (const m of ordered) {
-        const extra = base < perAthlete && spare > 0 ? 1 : 0
-        spare -= extra
-        given.push([m.placement, base + extra])
-      }
-    }
-    for (const [p, turns] of given) {
-      p.turns = turns
-      totals.set(p.athleteId, (totals.get(p.athleteId) ?? 0) + turns)
-    }
-  }
-  return out
+  const turns = fairTurns(model, placements)
+  return placements.map((p, i) => ({ ...p, turns: turns[i]! }))
 }
 
 /**
