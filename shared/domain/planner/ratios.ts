@@ -1,8 +1,8 @@
 import type { Placement, PlanModel } from './types.ts'
 
-// Supervision guidance. British Gymnastics' reasonable-ratio guidance, as a member club
-// publishes it (marriottsgymnastics.com/policies/coach-gymnast-ratios/, "British Gymnastics
-// recommends the following reasonable ratio"): "Normally, one coach would not be expected to
+// Supervision guidance. British Gymnastics' reasonable-ratio guidance, quoted on a member club's
+// published policy page (a secondary source: the federation's own text was not found here;
+// "British Gymnastics recommends the following reasonable ratio"): "Normally, one coach would not be expected to
 // supervise more than 16 gymnasts, without other suitably qualified coaches being in
 // attendance" and "The recommended maximum number of participants to one apparatus/station is 8
 // participants". Other federations publish other figures: the national federation's rules and
@@ -11,7 +11,7 @@ export const ratioGuidance = {
   athletesPerCoach: 16,
   athletesPerStation: 8,
   source:
-    'British Gymnastics guidance on coach:gymnast ratios, as published by a member club (marriottsgymnastics.com/policies/coach-gymnast-ratios/)',
+    'British Gymnastics guidance on coach:gymnast ratios, as quoted in a member club’s published policy (secondary source)',
 } as const
 
 export interface RatioWarning {
