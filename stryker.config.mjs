@@ -32,12 +32,10 @@
  * Equivalent but left to show as survivors, since a disable comment works per line and mutator and
  * would also hide killed mutants of the same mutator on that line:
  * - audit/hashing.ts canonicalJson: `value !== null` → `true` (null through the object path writes
- *   "null" too); the `keys.every(…)` condition → `false` ×4 (shortcut off, same text).
- * - audit/hashing.ts flatInKeyOrder condition: → `true` ×2 (they only answer no more often; the
- *   others are caught by the test that in-order lists are not sorted again, since the slow path
- *   sorts keys) and `key <= previous` → `<` (an object's keys are unique).
- * - audit/hashing.ts inOrder: `i < texts.length` → `<=` (the extra comparison is with undefined,
- *   which is false, so the answer is the same).
+ *   "null" too); `if (flatInKeyOrder(object))` → `false` and the `keys.every(…)` condition →
+ *   `false` ×4 (shortcuts off, same text).
+ * - audit/hashing.ts flatInKeyOrder condition: → `true` ×5, `&&` → `||` ×2 (they only answer no
+ *   more often) and `key <= previous` → `<` (an object's keys are unique).
  * - audit/formulas.ts findCatalogueGaps: `e.counterpartId === null` → `false` (a set of ids never
  *   holds null, so `!ids.has(null)` answers the same).
  * - audit/readiness.ts: the seeded "full twist" requirement's `minRotationClass: 'single'` → `""`

@@ -4,7 +4,6 @@
 
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
-import { CanonicalList } from '../../shared/domain/audit/hashing.ts'
 import type {
   AuditInputs,
   AuditRecord,
@@ -101,10 +100,9 @@ export async function gatherInputs(
 
   // The records, a batch of athletes at a time: each batch's rows are done with before the next
   // is read, so a large club's rows never sit in memory all at once, and between batches the
-  // database and this process are free for other work. Each record's canonical text (for the input hash) is worked out as it is read, and the rows
-  // come in the order of the hash's canonical sort (uuids order as their text does), which it
-  // then need not do.
-  const records = new CanonicalList<AuditRecord>()
+  // database and this process are free for other work. Each athlete's rows come in the order
+  // the table holds them, as from one query over the club.
+  const records: AuditRecord[] = []
   const paces: Record<string, number> = {}
   const window = paceWindow(asOf)
   const ids = roster.map((a) => a.id).sort()
@@ -122,7 +120,6 @@ export async function gatherInputs(
           inArray(progressRecords.athleteId, ids.slice(from, from + athletesPerBatch)),
         ),
       )
-      .orderBy(progressRecords.athleteId, progressRecords.elementId)
       .execute()
   // The next batch is asked for before this one is worked through, so the database reads it
   // meanwhile (on a transaction's one connection it simply waits its turn).
@@ -159,7 +156,7 @@ export async function gatherInputs(
       stepCount: stepCount.get(e.id) ?? 1,
     })),
     athletes: roster,
-    records: records.items,
+    records,
     paces,
     profiles,
     ageThresholds: thresholds,

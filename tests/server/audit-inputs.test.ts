@@ -198,8 +198,7 @@ describe('the audit’s inputs as of a date', () => {
     )
     expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
     expect(inTransaction.paces).toEqual(inputs.paces)
-    // The hash reads the records' texts as they were gathered, batch by batch; the same records
-    // in another order, worked out afresh and sorted, hash the same.
+    // The input hash does not depend on the order the batches brought the records in.
     const reordered = { ...inputs, records: [...inputs.records].reverse() }
     expect(await auditInputHash(inputs)).toBe(await auditInputHash(reordered))
   }, 60_000)

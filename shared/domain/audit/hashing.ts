@@ -16,14 +16,10 @@ export function canonicalJson(value: unknown): string {
   // arrays: a flat object goes to JSON.stringify whole, with its keys in sorted order. The default
   // sorts compare UTF-16 code units, the same order as compareText.
   if (Array.isArray(value)) {
-    let items = knownItemTexts.get(value)
-    if (items === undefined || items.length !== value.length) {
-      // Stryker disable next-line ArrayDeclaration: equivalent, a presized array only saves growing it; every slot is assigned below
-      items = new Array<string>(value.length)
-      for (let i = 0; i < value.length; i++) items[i] = canonicalJson(value[i])
-    }
-    // An audit's records arrive in order; checking that is one pass, sorting them is many.
-    return `[${(inOrder(items) ? items : items.sort()).join(',')}]`
+    // Stryker disable next-line ArrayDeclaration: equivalent, a presized array only saves growing it; every slot is assigned below
+    const items = new Array<string>(value.length)
+    for (let i = 0; i < value.length; i++) items[i] = canonicalJson(value[i])
+    return `[${items.sort().join(',')}]`
   }
   if (value !== null && typeof value === 'object') {
     const object = value as Record<string, unknown>
@@ -42,35 +38,6 @@ export function canonicalJson(value: unknown): string {
     return `{${text}}`
   }
   return JSON.stringify(value) ?? 'null'
-}
-
-function inOrder(texts: readonly string[]): boolean {
-  for (let i = 1; i < texts.length; i++) if (texts[i - 1]! > texts[i]!) return false
-  return true
-}
-
-/** The canonical texts of the items of each array a {@link CanonicalList} built. */
-const knownItemTexts = new WeakMap<readonly unknown[], string[]>()
-
-/**
- * An array that works out each item's canonical text as the item is added, so that hashing it
- * later costs a join. The audit's inputs are read batch by batch while the database reads the
- * next batch: turning the records into text then uses time that would otherwise be spent
- * waiting. Items must not change once added (the audit's records never do); an array whose
- * length no longer matches its texts is worked out again.
- */
-export class CanonicalList<T> {
-  readonly items: T[] = []
-  readonly #texts: string[] = []
-
-  constructor() {
-    knownItemTexts.set(this.items, this.#texts)
-  }
-
-  push(item: T) {
-    this.items.push(item)
-    this.#texts.push(canonicalJson(item))
-  }
 }
 
 /**
