@@ -13,6 +13,7 @@ import {
   pgEnum,
   pgTable,
   primaryKey,
+  smallint,
   text,
   timestamp,
   uniqueIndex,
@@ -500,6 +501,8 @@ export const audits = pgTable(
     squadId: uuid(),
     asOf: date().notNull(),
     inputHash: text().notNull(),
+    /** How `inputHash` was made (`AuditHashVersion`): 1 for audits stored before version 2. */
+    hashVersion: smallint().notNull().default(1),
     /**
      * The whole result, in its stored form (`packAuditResult`; rows written before it hold the
      * full AuditResult, and `unpackAuditResult` reads both). Plain json (stored as written,

@@ -7,7 +7,11 @@ import {
   isRerun,
   onePerDate,
 } from '../../shared/domain/audit/comparison.ts'
-import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
+import {
+  auditHashVersion,
+  auditInputHash,
+  type AuditHashVersion,
+} from '../../shared/domain/audit/hashing.ts'
 import { runAudit } from '../../shared/domain/audit/run.ts'
 import {
   auditFigures,
@@ -85,6 +89,7 @@ export async function computeAudit(
     squadId: run.squadId,
     asOf,
     inputHash,
+    hashVersion: auditHashVersion,
     result: packAuditResult(result),
     figures: auditFigures(result),
     visitOutcomes,
@@ -277,7 +282,9 @@ function namesOrErased(
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
 export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
   const row = await auditSummaryRow(db, access.clubId, id)
-  const hash = await auditInputHash(await gatherInputs(db, access.clubId, row.squadId, row.asOf))
+  const inputs = await gatherInputs(db, access.clubId, row.squadId, row.asOf)
+  // Made the way the stored hash was, so that an audit stored before version 2 compares alike.
+  const hash = await auditInputHash(inputs, {}, row.hashVersion as AuditHashVersion)
   return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
 }
 

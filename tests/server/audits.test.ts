@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { and, eq } from 'drizzle-orm'
+import { and, eq, inArray } from 'drizzle-orm'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
 import type { Database } from '../../server/db/client.ts'
@@ -8,6 +8,8 @@ import { createAthlete } from '../../server/services/athletes.ts'
 import { appendHistory } from '../../server/services/progress-history.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import type { StoredAuditResult } from '../../server/services/audit-storage.ts'
+import { gatherInputs } from '../../server/services/audit-inputs.ts'
+import { auditInputHash } from '../../shared/domain/audit/hashing.ts'
 import { auditFigures } from '../../shared/domain/audit/types.ts'
 import type { AuditReport, BoardSummary } from '../../shared/schemas/audits.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -182,6 +184,40 @@ describe('running an audit', () => {
     expect(
       (await director.post(`${base}/audits/${q2.audit.id}/recheck`).expect(200)).body.unchanged,
     ).toBe(true)
+  })
+
+  it('re-checks an audit by the hash version it was stored with', async () => {
+    const [stored] = await database.db
+      .select({ hashVersion: audits.hashVersion })
+      .from(audits)
+      .where(and(eq(audits.clubId, fx.club.id), eq(audits.id, q2.audit.id)))
+    expect(stored!.hashVersion).toBe(2)
+    // An audit stored before version 2: its hash is the first version's over the same inputs.
+    const inputs = await gatherInputs(database.db, fx.club.id, null, q2.audit.asOf)
+    const made: string[] = []
+    const older = async (inputHash: string) => {
+      const [row] = await database.db
+        .insert(audits)
+        .values({
+          clubId: fx.club.id,
+          squadId: null,
+          asOf: q2.audit.asOf,
+          inputHash,
+          result: q2.result,
+          figures: auditFigures(q2.result),
+        })
+        .returning({ id: audits.id })
+      made.push(row!.id)
+      return (await director.post(`${base}/audits/${row!.id}/recheck`).expect(200)).body as {
+        unchanged: boolean
+      }
+    }
+    expect((await older(await auditInputHash(inputs, {}, 1))).unchanged).toBe(true)
+    // The same inputs hashed the second way do not match a first-version row.
+    expect((await older(q2.audit.inputHash)).unchanged).toBe(false)
+    await database.db
+      .delete(audits)
+      .where(and(eq(audits.clubId, fx.club.id), inArray(audits.id, made)))
   })
 
   it('sees later events in a later audit, compares with the previous one, and charts the trend', async () => {

@@ -1,0 +1,1 @@
+ALTER TABLE "audits" ADD COLUMN "hash_version" smallint DEFAULT 1 NOT NULL;
