@@ -1,10 +1,22 @@
-import type { BatchInput, BatchPreview, BatchResult } from '@shared/schemas/progress-batch'
+import type {
+  BatchInput,
+  BatchListQuery,
+  BatchPreview,
+  BatchResult,
+} from '@shared/schemas/progress-batch'
 import { request } from './http'
 
 const batch = (clubId: string, squadId: string) =>
   `/clubs/${clubId}/squads/${squadId}/progress-batch`
 
-/** Every athlete of the squad on the element (or pair): step, next step, criterion, checks. */
+/**
+ * Every athlete of the squad on the element (or pair): step, next step, criterion, checks. A GET,
+ * so that the service worker keeps the answer for the tablet offline.
+ */
+export const listBatch = (clubId: string, squadId: string, query: BatchListQuery) =>
+  request<BatchPreview>(batch(clubId, squadId), { query: { ...query } })
+
+/** The same list with the checks of the given entries; nothing is saved. */
 export const previewBatch = (clubId: string, squadId: string, input: BatchInput) =>
   request<BatchPreview>(batch(clubId, squadId), {
     method: 'POST',
