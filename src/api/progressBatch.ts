@@ -16,13 +16,6 @@ const batch = (clubId: string, squadId: string) =>
 export const listBatch = (clubId: string, squadId: string, query: BatchListQuery) =>
   request<BatchPreview>(batch(clubId, squadId), { query: { ...query } })
 
-/** The same list with the checks of the given entries; nothing is saved. */
-export const previewBatch = (clubId: string, squadId: string, input: BatchInput) =>
-  request<BatchPreview>(batch(clubId, squadId), {
-    method: 'POST',
-    body: { ...input, dryRun: true },
-  })
-
 /** Saves the ticked athletes' next steps in one transaction: all or nothing. */
 export const saveBatch = (clubId: string, squadId: string, input: BatchInput) =>
   request<BatchResult>(batch(clubId, squadId), {
