@@ -68,6 +68,41 @@ const atTop = row(1, {
   lastEventId: eventIds[1]!,
 })
 
+// Ada 0's step 2 (index 1) on 3 Nov, kept on the tablet.
+const keptEntry = (tabletId: string, status: OutboxEntry['status']): OutboxEntry => ({
+  clientEventId: tabletId,
+  seq: 1,
+  clubId,
+  athleteId: athletes[0]!,
+  athleteName: 'Ada 0 Quill',
+  elementName: 'Back tuck',
+  input: {
+    elementId,
+    kind: 'step',
+    stepIndex: 1,
+    occurredOn: '2026-11-03',
+    clientEventId: tabletId,
+    expectedLastEventId: eventIds[0]!,
+  },
+  predicted: {
+    athleteId: athletes[0]!,
+    elementId,
+    stepIndex: 1,
+    highestStepIndex: 1,
+    stepReachedOn: '2026-11-03',
+    paused: false,
+    pauseReason: null,
+    plannedStepIndex: null,
+    lastEventOn: '2026-11-03',
+    lastEventId: tabletId,
+    flagged: false,
+  },
+  madeAt: '2026-11-03T10:00:00Z',
+  status,
+  refusal: status === 'refused' ? 'Someone else has just changed this athlete’s record.' : null,
+  current: null,
+})
+
 const byTest = (name: string) => [
   ...document.querySelectorAll<HTMLElement>(`[data-test="${name}"]`),
 ]
@@ -174,36 +209,48 @@ describe('ProgressBatchPanel offline', () => {
     expect(document.body.textContent).not.toContain('Nothing was saved')
   })
 
+  it('shows each row as the server answered once its kept entry is sent, then reads the list again', async () => {
+    const tabletId = '77777777-7777-4777-8777-777777777702'
+    const stored = '44444444-4444-4444-8444-444444444403'
+    kept.set(tabletId, keptEntry(tabletId, 'waiting'))
+    vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
+    mount()
+    await settle()
+    const outbox = useOutboxStore()
+    outbox.online = false
+    await outbox.load()
+    await settle()
+    expect(byTest('batch-row')[0]!.textContent).toContain('entry kept on this tablet')
+
+    // The server stores it: step 2 (index 1) reached on 3 Nov, as the entry said.
+    const record = {
+      ...keptEntry(tabletId, 'waiting').predicted,
+      lastEventId: stored,
+      flagged: true,
+    }
+    vi.mocked(progressApi.recordEvent).mockResolvedValueOnce({
+      eventId: stored,
+      record,
+      checks: [],
+      replayed: false,
+    })
+    vi.mocked(api.listBatch).mockResolvedValue(
+      preview([row(0, { ...record, nextStep: { index: 2, name: steps[2]!.name, criterion: '' } })]),
+    )
+    outbox.online = true
+    await outbox.flush()
+    await settle()
+    expect(kept.size).toBe(0)
+    const shown = byTest('batch-row')[0]!.textContent ?? ''
+    expect(shown).toContain('now 2/6')
+    expect(shown).toContain('Next: step 3 · Hand spot by a coach')
+    expect(shown).not.toContain('kept')
+    expect(api.listBatch).toHaveBeenCalledTimes(2)
+  })
+
   it('online, sends an athlete whose entry is still kept through the outbox, after that entry', async () => {
     const tabletId = '77777777-7777-4777-8777-777777777701'
-    kept.set(tabletId, {
-      clientEventId: tabletId,
-      seq: 1,
-      clubId,
-      athleteId: athletes[0]!,
-      athleteName: 'Ada 0 Quill',
-      elementName: 'Back tuck',
-      input: {
-        elementId,
-        kind: 'step',
-        stepIndex: 1,
-        occurredOn: '2026-11-03',
-        clientEventId: tabletId,
-        expectedLastEventId: eventIds[0]!,
-      },
-      predicted: {
-        ...row(0),
-        stepIndex: 1,
-        highestStepIndex: 1,
-        stepReachedOn: '2026-11-03',
-        lastEventOn: '2026-11-03',
-        lastEventId: tabletId,
-      },
-      madeAt: '2026-11-03T10:00:00Z',
-      status: 'refused',
-      refusal: 'Someone else has just changed this athlete’s record.',
-      current: null,
-    })
+    kept.set(tabletId, keptEntry(tabletId, 'refused'))
     vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
     const { wrapper } = mount()
     await useOutboxStore().load()
