@@ -56,9 +56,9 @@ function naiveAria(): Plugin {
 
 /**
  * The API answers a tablet needs to log progress offline after a reload: who is signed in, the
- * squads, the roster, the catalogue, the squad grid and a record's detail (with the open
- * recommendations the grid marks). Nothing else from `/api` is kept; sign-out deletes the cache
- * (`apiCacheName` in src/offline/caches.ts).
+ * squads, the roster, the catalogue, the squad grid, a record's detail (with the open
+ * recommendations the grid marks) and the squad logging list (`batchList` below). Nothing else
+ * from `/api` is kept; sign-out deletes the cache (`apiCacheName` in src/offline/caches.ts).
  */
 const offlineApi = [
   /\/api\/auth\/me$/,
@@ -68,6 +68,34 @@ const offlineApi = [
   /\/api\/clubs\/[^/]+\/athletes\/[^/]+\/records\/[^/?]+$/,
   /\/api\/clubs\/[^/]+\/recommendations(\?.*)?$/,
 ]
+
+/**
+ * The squad logging list (GET …/squads/:squadId/progress-batch?elementId=…), kept under its URL
+ * without the day asked (`occurredOn`): a list opened online yesterday still shows offline today,
+ * and the checks of what is saved offline run on the server when it is sent.
+ */
+const batchList = /\/api\/clubs\/[^/]+\/squads\/[^/?]+\/progress-batch\?.*$/
+const withoutDay = {
+  // Written into the service worker as it stands: it must use nothing from outside.
+  cacheKeyWillBeUsed: async ({ request }: { request: Request }) => {
+    const url = new URL(request.url)
+    url.searchParams.delete('occurredOn')
+    return url.href
+  },
+}
+
+const apiCaching = (urlPattern: RegExp, plugins: (typeof withoutDay)[] = []) => ({
+  urlPattern,
+  handler: 'NetworkFirst' as const,
+  method: 'GET' as const,
+  options: {
+    cacheName: 'twofold-api',
+    networkTimeoutSeconds: 5,
+    cacheableResponse: { statuses: [200] },
+    expiration: { maxEntries: 400, maxAgeSeconds: 7 * 24 * 3600 },
+    plugins,
+  },
+})
 
 /** The app installs as a web app; its service worker keeps the app shell for offline use. */
 const pwa = VitePWA({
@@ -90,17 +118,10 @@ const pwa = VitePWA({
     cleanupOutdatedCaches: true,
     clientsClaim: true,
     skipWaiting: true,
-    runtimeCaching: offlineApi.map((urlPattern) => ({
-      urlPattern,
-      handler: 'NetworkFirst' as const,
-      method: 'GET' as const,
-      options: {
-        cacheName: 'twofold-api',
-        networkTimeoutSeconds: 5,
-        cacheableResponse: { statuses: [200] },
-        expiration: { maxEntries: 400, maxAgeSeconds: 7 * 24 * 3600 },
-      },
-    })),
+    runtimeCaching: [
+      ...offlineApi.map((urlPattern) => apiCaching(urlPattern)),
+      apiCaching(batchList, [withoutDay]),
+    ],
   },
 })
 

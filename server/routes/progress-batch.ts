@@ -1,5 +1,6 @@
 import { z } from 'zod'
-import { batchInputSchema } from '../../shared/schemas/progress-batch.ts'
+import { todayIso } from '../../shared/domain/access.ts'
+import { batchInputSchema, batchListQuerySchema } from '../../shared/schemas/progress-batch.ts'
 import type { AppContext } from '../context.ts'
 import { previewBatch, saveBatch } from '../services/progress-batch.ts'
 import type { ClubRoute } from './club-routes.ts'
@@ -9,6 +10,25 @@ const squadParams = z.object({ squadId: z.uuid('No such squad.') })
 /** A squad's entries on one element or a pair at once: coaches of the squad and directors. */
 export function progressBatchRoutes(ctx: AppContext): ClubRoute[] {
   return [
+    {
+      // The list alone, read-only: the tablet's service worker keeps it for offline use.
+      method: 'get',
+      path: '/squads/:squadId/progress-batch',
+      allow: ['director', 'coach'],
+      handler: async (req, res) => {
+        const { squadId } = squadParams.parse(req.params)
+        const query = batchListQuerySchema.parse(req.query)
+        res.json(
+          await previewBatch(ctx.db, req.club, squadId, {
+            elementId: query.elementId,
+            counterpartId: query.counterpartId ?? null,
+            occurredOn: query.occurredOn ?? todayIso(),
+            dryRun: true,
+            entries: [],
+          }),
+        )
+      },
+    },
     {
       method: 'post',
       path: '/squads/:squadId/progress-batch',

@@ -202,13 +202,9 @@ export async function previewBatch(
       const record = loaded.records.get(key(athlete.id, element.id))
       const step = plan ? element.steps[plan.stepIndex]! : null
       rows.push({
-        athleteId: athlete.id,
+        ...recordView(record, athlete.id, element.id),
         givenName: athlete.givenName,
         familyName: athlete.familyName,
-        elementId: element.id,
-        stepIndex: record?.stepIndex ?? null,
-        paused: record?.paused ?? false,
-        lastEventId: record?.lastEventId ?? null,
         nextStep: step && { index: plan!.stepIndex, name: step.name, criterion: step.criterion },
         checks: plan?.checks ?? [],
         entryIndex: entry ? entryIndex : null,
@@ -222,6 +218,7 @@ export async function previewBatch(
       name: e.name,
       direction: e.direction,
       stepCount: e.steps.length,
+      steps: e.steps.map((step, index) => ({ index, name: step.name, criterion: step.criterion })),
     })),
     rows,
   }

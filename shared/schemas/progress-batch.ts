@@ -6,6 +6,7 @@ import {
   recordViewSchema,
   skipReasonSchema,
 } from './progress.ts'
+import { pauseReasons } from '../domain/progress.ts'
 
 /** One athlete who passed a step in a squad batch. */
 export const batchEntrySchema = z.object({
@@ -64,6 +65,18 @@ export const batchInputSchema = z
   })
 export type BatchInput = z.input<typeof batchInputSchema>
 
+/**
+ * GET /squads/:squadId/progress-batch: the batch screen's list with no entries, read-only, so
+ * that the tablet's service worker can keep it for offline use. `occurredOn` is the day the
+ * checks are worked out for (the server's today when left out).
+ */
+export const batchListQuerySchema = z.object({
+  elementId: z.uuid('Choose an element.'),
+  counterpartId: z.uuid('Choose the mirrored element.').optional(),
+  occurredOn: occurredOnSchema.optional(),
+})
+export type BatchListQuery = z.input<typeof batchListQuerySchema>
+
 /** One athlete × element of the batch screen: where they stand and what passing next means. */
 export const batchRowSchema = z.object({
   athleteId: z.uuid(),
@@ -73,6 +86,13 @@ export const batchRowSchema = z.object({
   stepIndex: z.number().nullable(),
   paused: z.boolean(),
   lastEventId: z.uuid().nullable(),
+  /** The rest of the record (RecordView), for the tablet to foresee an entry kept offline. */
+  highestStepIndex: z.number().nullable(),
+  stepReachedOn: z.string().nullable(),
+  pauseReason: z.enum(pauseReasons).nullable(),
+  plannedStepIndex: z.number().nullable(),
+  lastEventOn: z.string().nullable(),
+  flagged: z.boolean(),
   /** The step a tick records (the entry's, or the one after the current step); null at the top. */
   nextStep: z.object({ index: z.number(), name: z.string(), criterion: z.string() }).nullable(),
   /** The checks that recording it would run now (the same as a single entry's). */
@@ -90,6 +110,8 @@ export const batchPreviewSchema = z.object({
       name: z.string(),
       direction: z.enum(['forward', 'backward', 'sideward']),
       stepCount: z.number(),
+      /** Every step with its pass criterion: the tablet names the next step after a kept entry. */
+      steps: z.array(z.object({ index: z.number(), name: z.string(), criterion: z.string() })),
     }),
   ),
   rows: z.array(batchRowSchema),

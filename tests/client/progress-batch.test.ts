@@ -5,9 +5,18 @@ import type { BatchPreview, BatchRow } from '@shared/schemas/progress-batch'
 import { ApiError } from '@/api/http'
 import * as api from '@/api/progressBatch'
 import ProgressBatchPanel from '@/components/progress/ProgressBatchPanel.vue'
-import { clubId, elementId, eventIds, mountInProviders, wait } from './progress-helpers'
+import type { OutboxEntry } from '@/offline/outbox-db'
+import { clubId, elementId, eventIds, mountInProviders, steps, wait } from './progress-helpers'
 
-vi.mock('@/api/progressBatch', () => ({ previewBatch: vi.fn(), saveBatch: vi.fn() }))
+vi.mock('@/api/progressBatch', () => ({ listBatch: vi.fn(), saveBatch: vi.fn() }))
+// The tablet's keeping, in memory: what the outbox asks of IndexedDB.
+const kept = new Map<string, OutboxEntry>()
+vi.mock('@/offline/outbox-db', () => ({
+  listEntries: async () => [...kept.values()].sort((a, b) => a.seq - b.seq),
+  putEntry: async (e: OutboxEntry) => void kept.set(e.clientEventId, e),
+  settleEntry: async (id: string) => void kept.delete(id),
+  closeOutbox: async () => undefined,
+}))
 
 const squadId = '55555555-5555-4555-8555-555555555555'
 const athletes = [
@@ -16,14 +25,21 @@ const athletes = [
   '66666666-6666-4666-8666-666666666603',
 ]
 // A common trampoline progression for a back tuck (common practice, no published source).
+const batchSteps = steps.map((s, index) => ({ index, name: s.name, criterion: s.criterion }))
 const row = (i: number, partial: Partial<BatchRow> = {}): BatchRow => ({
   athleteId: athletes[i]!,
   givenName: `Ada ${i}`,
   familyName: 'Quill',
   elementId,
   stepIndex: 0,
+  highestStepIndex: 0,
+  stepReachedOn: '2026-11-01',
   paused: false,
+  pauseReason: null,
+  plannedStepIndex: null,
+  lastEventOn: '2026-11-01',
   lastEventId: eventIds[0]!,
+  flagged: false,
   nextStep: {
     index: 1,
     name: 'Rotation in the spotting rig',
@@ -35,7 +51,9 @@ const row = (i: number, partial: Partial<BatchRow> = {}): BatchRow => ({
 })
 const preview = (rows: BatchRow[]): BatchPreview => ({
   squad: { id: squadId, name: 'Kites' },
-  elements: [{ id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6 }],
+  elements: [
+    { id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6, steps: batchSteps },
+  ],
   rows,
 })
 
@@ -51,7 +69,8 @@ const checkbox = (wrapper: VueWrapper, i: number) => wrapper.findAllComponents(N
 const save = () => byTest('batch-save')[0] as HTMLButtonElement
 
 beforeEach(() => {
-  vi.mocked(api.previewBatch).mockReset()
+  kept.clear()
+  vi.mocked(api.listBatch).mockReset()
   vi.mocked(api.saveBatch).mockReset()
 })
 afterEach(() => {
@@ -60,7 +79,7 @@ afterEach(() => {
 
 describe('ProgressBatchPanel', () => {
   it('shows each athlete’s next step and criterion, ticks all who can pass on, and saves them once', async () => {
-    vi.mocked(api.previewBatch).mockResolvedValue(
+    vi.mocked(api.listBatch).mockResolvedValue(
       preview([
         row(0),
         row(1, { stepIndex: 5, nextStep: null }),
@@ -107,7 +126,7 @@ describe('ProgressBatchPanel', () => {
       expect.objectContaining({ athleteId: athletes[2], stepIndex: 0, expectedLastEventId: null }),
     ])
     expect(body.entries![0]!.clientEventId).toMatch(/^[0-9a-f-]{36}$/)
-    expect(api.previewBatch).toHaveBeenCalledTimes(2)
+    expect(api.listBatch).toHaveBeenCalledTimes(2)
   })
 
   it('asks for a skip reason where a check needs one and puts the server’s refusal on that athlete', async () => {
@@ -116,7 +135,7 @@ describe('ProgressBatchPanel', () => {
       severity: 'requires-reason' as const,
       message: 'Moving straight to step 2 skips step 1. State a reason for the skip.',
     }
-    vi.mocked(api.previewBatch).mockResolvedValue(preview([row(0), row(1, { checks: [needs] })]))
+    vi.mocked(api.listBatch).mockResolvedValue(preview([row(0), row(1, { checks: [needs] })]))
     const { wrapper } = mountInProviders(ProgressBatchPanel, {
       clubId,
       squadId,
@@ -145,7 +164,7 @@ describe('ProgressBatchPanel', () => {
 
   it('after a 409 keeps only the ticks whose records did not move, marks the stale row, and saves with new ids', async () => {
     const moved = '44444444-4444-4444-8444-444444444499'
-    vi.mocked(api.previewBatch)
+    vi.mocked(api.listBatch)
       .mockResolvedValueOnce(preview([row(0), row(1), row(2)]))
       .mockResolvedValueOnce(
         preview([
@@ -187,7 +206,7 @@ describe('ProgressBatchPanel', () => {
   })
 
   it('after an entry id met with other details, reloads without claiming nothing was ever saved', async () => {
-    vi.mocked(api.previewBatch).mockResolvedValue(preview([row(0)]))
+    vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
     const { wrapper } = mountInProviders(ProgressBatchPanel, {
       clubId,
       squadId,
@@ -204,7 +223,7 @@ describe('ProgressBatchPanel', () => {
     )
     save().click()
     await settle()
-    expect(api.previewBatch).toHaveBeenCalledTimes(2)
+    expect(api.listBatch).toHaveBeenCalledTimes(2)
     const alerts = [...document.querySelectorAll('[role="alert"]')].map((a) => a.textContent)
     expect(alerts.some((t) => t?.includes('Nothing was saved'))).toBe(false)
     expect(alerts.some((t) => t?.includes('check the ticks'))).toBe(true)
@@ -216,7 +235,7 @@ describe('ProgressBatchPanel', () => {
   })
 
   it('never stays saving when the entries cannot be built', async () => {
-    vi.mocked(api.previewBatch).mockResolvedValue(preview([row(0)]))
+    vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
     const { wrapper } = mountInProviders(ProgressBatchPanel, {
       clubId,
       squadId,
@@ -243,7 +262,7 @@ describe('ProgressBatchPanel', () => {
     vi.useFakeTimers({ toFake: ['Date'] })
     try {
       vi.setSystemTime(new Date(2026, 10, 2, 23, 58))
-      vi.mocked(api.previewBatch).mockResolvedValue(preview([row(0)]))
+      vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
       const { wrapper } = mountInProviders(ProgressBatchPanel, {
         clubId,
         squadId,
@@ -258,7 +277,7 @@ describe('ProgressBatchPanel', () => {
       save().click()
       await settle()
       expect(api.saveBatch).not.toHaveBeenCalled()
-      expect(vi.mocked(api.previewBatch).mock.calls[1]![2].occurredOn).toBe('2026-11-03')
+      expect(vi.mocked(api.listBatch).mock.calls[1]![2].occurredOn).toBe('2026-11-03')
       expect(byTest('batch-date')[0]!.textContent).toContain('2026-11-03')
       vi.mocked(api.saveBatch).mockResolvedValueOnce({ results: [] })
       save().click()
@@ -271,11 +290,17 @@ describe('ProgressBatchPanel', () => {
 
   it('names each pair member’s "select all" after its element', async () => {
     const mirror = '33333333-3333-4333-8333-333333333399'
-    vi.mocked(api.previewBatch).mockResolvedValue({
+    vi.mocked(api.listBatch).mockResolvedValue({
       ...preview([row(0), row(0, { elementId: mirror })]),
       elements: [
-        { id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6 },
-        { id: mirror, name: 'Front tuck', direction: 'forward', stepCount: 6 },
+        {
+          id: elementId,
+          name: 'Back tuck',
+          direction: 'backward',
+          stepCount: 6,
+          steps: batchSteps,
+        },
+        { id: mirror, name: 'Front tuck', direction: 'forward', stepCount: 6, steps: batchSteps },
       ],
     })
     mountInProviders(ProgressBatchPanel, {

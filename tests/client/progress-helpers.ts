@@ -34,7 +34,7 @@ export const eventIds = [
 ]
 
 // A common trampoline progression for a back tuck (common practice, no published source).
-const steps = [
+export const steps = [
   {
     name: 'Tuck jumps and timers',
     modality: 'floor-drill',

@@ -446,6 +446,13 @@ const matrix: Record<string, Row> = {
       body: await stepEvent(f),
     }),
   },
+  'GET /squads/:squadId/progress-batch': {
+    allow: writers,
+    ok: 200,
+    request: async (f) => ({
+      path: `/squads/${f.squad.id}/progress-batch?elementId=${await anyElement(f)}`,
+    }),
+  },
   'POST /squads/:squadId/progress-batch': {
     allow: writers,
     ok: 201,
