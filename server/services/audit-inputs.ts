@@ -22,7 +22,13 @@ import { listElements } from './catalogue.ts'
 import { replayedTimeline } from './progress-records.ts'
 
 /** Athletes whose records one query reads: about 20,000 rows for 200 athletes. */
-const athletesPerBatch = 200
+const defaultAthletesPerBatch = 200
+/**
+ * Batches asked for beyond the one being worked through. Each query's rows are parsed as they
+ * arrive, so two on their way keep the database reading while this process parses; at most
+ * three batches' rows are in memory at once.
+ */
+const batchesAhead = 2
 
 /** Lets the event loop run whatever is waiting (I/O, timers) before going on. */
 const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve))
@@ -70,6 +76,7 @@ export async function gatherInputs(
   clubId: string,
   squadId: string | null,
   asOf: string,
+  { athletesPerBatch = defaultAthletesPerBatch }: { athletesPerBatch?: number } = {},
 ): Promise<AuditInputs> {
   const inRoster = and(
     eq(athletes.clubId, clubId),
@@ -121,14 +128,23 @@ export async function gatherInputs(
         ),
       )
       .execute()
-  // The next batch is asked for before this one is worked through, so the database reads it
-  // meanwhile (on a transaction's one connection it simply waits its turn).
-  let next = ids.length > 0 ? readBatch(0) : null
-  for (let from = 0; next !== null; from += athletesPerBatch) {
-    const recordRows = await next
-    next = from + athletesPerBatch < ids.length ? readBatch(from + athletesPerBatch) : null
-    // Should this batch fail, the one asked for is not awaited: its failure is not the news.
-    next?.catch(() => undefined)
+  // The next batches are asked for before this one is worked through, so the database reads them
+  // meanwhile (on a transaction's one connection they simply wait their turn).
+  const asked: Promise<Awaited<ReturnType<typeof readBatch>>>[] = []
+  let nextFrom = 0
+  const askAhead = () => {
+    while (asked.length < batchesAhead + 1 && nextFrom < ids.length) {
+      const batch = readBatch(nextFrom)
+      // Should an earlier batch fail, a later one is not awaited: its failure is not the news.
+      batch.catch(() => undefined)
+      asked.push(batch)
+      nextFrom += athletesPerBatch
+    }
+  }
+  askAhead()
+  while (asked.length > 0) {
+    const recordRows = await asked.shift()!
+    askAhead()
     for (const row of recordRows) {
       const timeline =
         row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))

@@ -154,8 +154,8 @@ describe('the audit’s inputs as of a date', () => {
       level: 'junior',
       discipline: 'artistic-women',
     })
-    // 205 athletes: more than two reads of a hundred athletes. Athlete i reached step i mod 3 on
-    // the back tuck on 10 January, and nothing before.
+    // 205 athletes read 50 at a time: five reads, more than the three asked for at once. Athlete
+    // i reached step i mod 3 on the back tuck on 10 January, and nothing before.
     const ids: string[] = []
     const history: HistoryEvent[] = []
     for (let i = 0; i < 205; i++) {
@@ -176,7 +176,8 @@ describe('the audit’s inputs as of a date', () => {
       .set({ archivedAt: new Date() })
       .where(and(eq(athletes.clubId, fx.club.id), eq(athletes.id, archived)))
 
-    const inputs = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30')
+    const reading = { athletesPerBatch: 50 }
+    const inputs = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30', reading)
     const expected = ids.flatMap((id, i) =>
       id === archived ? [] : [{ athleteId: id, elementId: backTuck, stepIndex: i % 3 }],
     )
@@ -194,8 +195,11 @@ describe('the audit’s inputs as of a date', () => {
     })
     // The same inside a transaction, whose one connection runs one query at a time.
     const inTransaction = await database.db.transaction((tx) =>
-      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30'),
+      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30', reading),
     )
+    // And with the default reads (two of them), the same records.
+    const inTwo = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30')
+    expect([...inTwo.records].sort(byAthlete)).toEqual(expected)
     expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
     expect(inTransaction.paces).toEqual(inputs.paces)
     // The input hash does not depend on the order the batches brought the records in.
