@@ -5,7 +5,7 @@ import { createElement, listElements } from '../server/services/catalogue.ts'
 import { createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { appendHistory, type HistoryEvent } from '../server/services/progress-history.ts'
-import { squadGrid } from '../server/services/progress-reads.ts'
+import { squadGrid } from '../server/services/progress-grid.ts'
 import { createSquad } from '../server/services/squads.ts'
 import { report, time, withBenchDatabase } from './harness.ts'
 

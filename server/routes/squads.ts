@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { gridQuerySchema } from '../../shared/schemas/progress.ts'
 import { squadCoachesSchema, squadInputSchema } from '../../shared/schemas/squads.ts'
 import type { AppContext } from '../context.ts'
-import { squadGrid } from '../services/progress-reads.ts'
+import { squadGrid } from '../services/progress-grid.ts'
 import {
   createSquad,
   getSquad,

@@ -183,3 +183,14 @@ export async function exportRoster(db: DbOrTx, access: ClubAccess, squadId?: str
     })),
   )
 }
+
+/** A squad's athletes on its roster (none archived), by family name then given name. */
+export function squadRoster(db: DbOrTx, clubId: string, squadId: string) {
+  return db
+    .select({ id: athletes.id, givenName: athletes.givenName, familyName: athletes.familyName })
+    .from(athletes)
+    .where(
+      and(eq(athletes.clubId, clubId), eq(athletes.squadId, squadId), isNull(athletes.archivedAt)),
+    )
+    .orderBy(asc(athletes.familyName), asc(athletes.givenName))
+}

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm'
+import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import type { CheckResult, PrerequisiteStatus } from '../../shared/domain/progress.ts'
 import type {
   BatchEntry,
@@ -10,7 +10,7 @@ import type {
 import type { z } from 'zod'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, elements, progressEvents, progressRecords } from '../db/schema.ts'
+import { elements, progressEvents, progressRecords } from '../db/schema.ts'
 import { AppError } from '../http/errors.ts'
 import {
   assertReasonGiven,
@@ -31,6 +31,7 @@ import {
   type EventRow,
   type RecordRow,
 } from './progress-records.ts'
+import { squadRoster } from './athletes.ts'
 import { assertCanWriteSquad } from './scope.ts'
 
 // A squad's "passed the next step" entries on one element or a pair, checked by the same rules
@@ -94,17 +95,7 @@ async function load(
       ])
   })
 
-  const roster = await db
-    .select({ id: athletes.id, givenName: athletes.givenName, familyName: athletes.familyName })
-    .from(athletes)
-    .where(
-      and(
-        eq(athletes.clubId, access.clubId),
-        eq(athletes.squadId, squadId),
-        isNull(athletes.archivedAt),
-      ),
-    )
-    .orderBy(asc(athletes.familyName), asc(athletes.givenName))
+  const roster = await squadRoster(db, access.clubId, squadId)
   const inSquad = new Set(roster.map((a) => a.id))
   input.entries.forEach((entry, i) => {
     if (!inSquad.has(entry.athleteId))

@@ -1,8 +1,8 @@
-import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
+import { and, eq, inArray, isNull } from 'drizzle-orm'
 import { gapDeficit } from '../../shared/domain/audit/formulas.ts'
 import { displayNames } from '../../shared/domain/element-names.ts'
 import { replayRecord, type CheckResult } from '../../shared/domain/progress.ts'
-import type { Grid, MissingSkill, RecordDetail, RecordView } from '../../shared/schemas/progress.ts'
+import type { MissingSkill, RecordDetail, RecordView } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import {
@@ -99,95 +99,6 @@ async function stepCounts(db: DbOrTx, clubId: string) {
   for (const r of rows)
     counts.set(r.elementId, Math.max(counts.get(r.elementId) ?? 0, r.position + 1))
   return counts
-}
-
-/**
- * The squad grid: athletes × elements, each cell the step reached. Backward elements stand next
- * to their forward mirror so that a trailing counterpart shows at a glance.
- */
-export async function squadGrid(
-  db: DbOrTx,
-  access: ClubAccess,
-  squadId: string,
-  query: { apparatus?: string; rotationClass?: 'none' | 'single' | 'double' | 'triple' } = {},
-): Promise<Grid> {
-  const squad = await assertCanReadSquad(db, access, squadId)
-  const [list, counts, roster] = await Promise.all([
-    listElements(db, access.clubId, {
-      apparatus: query.apparatus,
-      rotationClass: query.rotationClass,
-    }),
-    stepCounts(db, access.clubId),
-    db
-      .select({ id: athletes.id, givenName: athletes.givenName, familyName: athletes.familyName })
-      .from(athletes)
-      .where(
-        and(
-          eq(athletes.clubId, access.clubId),
-          eq(athletes.squadId, squadId),
-          isNull(athletes.archivedAt),
-        ),
-      )
-      .orderBy(asc(athletes.familyName), asc(athletes.givenName)),
-  ])
-  const byId = new Map(list.map((e) => [e.id, e]))
-  const placed = new Set<string>()
-  const columns: Grid['columns'] = []
-  const push = (id: string, pairKey: string) => {
-    const e = byId.get(id)!
-    placed.add(id)
-    columns.push({
-      elementId: e.id,
-      name: e.name,
-      apparatus: e.apparatus,
-      direction: e.direction,
-      rotationClass: e.rotationClass,
-      notation: e.notation,
-      stepCount: counts.get(e.id) ?? 0,
-      counterpartId: e.counterpartId && byId.has(e.counterpartId) ? e.counterpartId : null,
-      pairKey,
-    })
-  }
-  for (const e of list) {
-    if (placed.has(e.id) || e.direction !== 'backward') continue
-    push(e.id, e.id)
-    if (e.counterpartId && byId.has(e.counterpartId) && !placed.has(e.counterpartId))
-      push(e.counterpartId, e.id)
-  }
-  for (const e of list) if (!placed.has(e.id)) push(e.id, e.id)
-
-  const records =
-    roster.length === 0
-      ? []
-      : await db
-          .select({
-            athleteId: progressRecords.athleteId,
-            elementId: progressRecords.elementId,
-            stepIndex: progressRecords.stepIndex,
-            paused: progressRecords.paused,
-            flagged: progressRecords.flagged,
-          })
-          .from(progressRecords)
-          .innerJoin(
-            athletes,
-            and(
-              eq(athletes.clubId, progressRecords.clubId),
-              eq(athletes.id, progressRecords.athleteId),
-            ),
-          )
-          .where(and(eq(progressRecords.clubId, access.clubId), eq(athletes.squadId, squadId)))
-  const column = new Map(columns.map((c, i) => [c.elementId, i]))
-  const row = new Map(roster.map((a, i) => [a.id, i]))
-  const cells: Grid['cells'] = roster.map(() =>
-    columns.map(() => ({ step: null, paused: false, flagged: false })),
-  )
-  for (const r of records) {
-    const i = row.get(r.athleteId)
-    const j = column.get(r.elementId)
-    if (i === undefined || j === undefined) continue
-    cells[i]![j] = { step: r.stepIndex, paused: r.paused, flagged: r.flagged }
-  }
-  return { squad: { id: squad.id, name: squad.name }, athletes: roster, columns, cells }
 }
 
 /**

@@ -499,6 +499,14 @@ describe('the squad grid and the missing-skills list', () => {
     const i = grid.columns.findIndex((c) => c.elementId === backTuck.id)
     expect(grid.columns[i + 1]!.elementId).toBe(frontTuck.id)
     expect(grid.columns[i + 1]!.pairKey).toBe(grid.columns[i]!.pairKey)
+    // FIG trampoline numeric notation (Code of Points, trampoline): 4 quarter saltos, no twist,
+    // tucked. The step count is the element's progression as its own page lists it.
+    expect(grid.columns[i]!.notation).toBe('40o')
+    const detail = (await director.get(`${base}/elements/${backTuck.id}`).expect(200)).body as {
+      steps: unknown[]
+    }
+    expect(grid.columns[i]!.stepCount).toBe(detail.steps.length)
+    expect(detail.steps.length).toBeGreaterThan(4)
     expect(grid.athletes.map((a) => a.id)).toEqual([athlete.id])
     expect(grid.cells[0]![i]).toEqual({ step: 4, paused: false, flagged: true })
     expect(grid.cells[0]![i + 1]!.step).toBeNull()
