@@ -178,3 +178,20 @@ export async function gatherInputs(
     ageThresholds: thresholds,
   }
 }
+
+/**
+ * `gatherInputs` in one read-only snapshot: the catalogue, the roster and every batch of records
+ * are read as of one moment, so an entry saved while an audit reads is in all of its reads or in
+ * none. Inside a caller's transaction it reads in that transaction.
+ */
+export function gatherSnapshot(
+  db: DbOrTx,
+  clubId: string,
+  squadId: string | null,
+  asOf: string,
+): Promise<AuditInputs> {
+  return db.transaction((tx) => gatherInputs(tx, clubId, squadId, asOf), {
+    isolationLevel: 'repeatable read',
+    accessMode: 'read only',
+  })
+}

@@ -31,7 +31,7 @@ import { packAuditResult, unpackAuditResult } from './audit-storage.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, audits, clubs, squads } from '../db/schema.ts'
 import { AppError, notFound } from '../http/errors.ts'
-import { gatherInputs } from './audit-inputs.ts'
+import { gatherSnapshot } from './audit-inputs.ts'
 import { assertCanReadSquad, readableSquadIds } from './scope.ts'
 import { gatherVisitOutcomes, outcomesForReport } from './visit-outcomes.ts'
 
@@ -74,7 +74,7 @@ export async function computeAudit(
 ): Promise<ComputedAudit> {
   const asOf = await checkRun(db, access, run)
   onProgress({ phase: 'reading', done: 0, total: 1 })
-  const inputs = await gatherInputs(db, access.clubId, run.squadId, asOf)
+  const inputs = await gatherSnapshot(db, access.clubId, run.squadId, asOf)
   onProgress({ phase: 'reading', done: 1, total: 1 })
   // The hash's text is built first; its digest (Web Crypto, on a thread of Node's pool) then runs
   // while the audit computes.
@@ -282,7 +282,7 @@ function namesOrErased(
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
 export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
   const row = await auditSummaryRow(db, access.clubId, id)
-  const inputs = await gatherInputs(db, access.clubId, row.squadId, row.asOf)
+  const inputs = await gatherSnapshot(db, access.clubId, row.squadId, row.asOf)
   // Made the way the stored hash was, so that an audit stored before version 2 compares alike.
   const hash = await auditInputHash(inputs, {}, row.hashVersion as AuditHashVersion)
   return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
