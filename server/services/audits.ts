@@ -10,7 +10,7 @@ import {
 import {
   auditHashVersion,
   auditInputHash,
-  type AuditHashVersion,
+  isAuditHashVersion,
 } from '../../shared/domain/audit/hashing.ts'
 import { runAudit } from '../../shared/domain/audit/run.ts'
 import {
@@ -282,9 +282,16 @@ function namesOrErased(
 /** Gathers the inputs again as of the audit's date: the same hash means nothing has changed since. */
 export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
   const row = await auditSummaryRow(db, access.clubId, id)
+  if (!isAuditHashVersion(row.hashVersion)) {
+    throw new AppError(
+      409,
+      'hash_version_unknown',
+      'This audit’s inputs were hashed by a later release of Twofold; it cannot be re-checked here.',
+    )
+  }
   const inputs = await gatherSnapshot(db, access.clubId, row.squadId, row.asOf)
   // Made the way the stored hash was, so that an audit stored before version 2 compares alike.
-  const hash = await auditInputHash(inputs, {}, row.hashVersion as AuditHashVersion)
+  const hash = await auditInputHash(inputs, {}, row.hashVersion)
   return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
 }
 

@@ -62,10 +62,10 @@ export async function squadGrid(
   squadId: string,
   query: { apparatus?: string; rotationClass?: RotationClass } = {},
 ): Promise<Grid> {
-  // Every read at once, the check of the squad among them: the reads change nothing, and none of
-  // their rows leaves this function unless the check passes.
-  const [squad, list, roster, records] = await Promise.all([
-    assertCanReadSquad(db, access, squadId),
+  // The check first (one row by key), so that a refused caller reads nothing; then every read at
+  // once, three connections of the pool at most.
+  const squad = await assertCanReadSquad(db, access, squadId)
+  const [list, roster, records] = await Promise.all([
     gridElements(db, access.clubId, query),
     squadRoster(db, access.clubId, squadId),
     db

@@ -15,8 +15,16 @@ export function registerServiceWorker() {
   })
 }
 
+/**
+ * Deletes the kept API answers (squad lists, records), as when a session ends however it ends.
+ * Entries still waiting stay, for their maker to send once signed in again.
+ */
+export async function forgetApiAnswers() {
+  if (typeof caches !== 'undefined') await caches.delete(apiCacheName)
+}
+
 /** Deletes the kept API answers and the waiting entries: nothing about athletes stays behind. */
 export async function clearOfflineData() {
-  if (typeof caches !== 'undefined') await caches.delete(apiCacheName)
+  await forgetApiAnswers()
   if (typeof indexedDB !== 'undefined') await deleteDB(outboxDbName)
 }

@@ -9,6 +9,11 @@ export interface OutboxEntry {
   /** Order of making: entries are sent in it. */
   seq: number
   clubId: string
+  /**
+   * The user who made it: only they send it, so that a tablet shared by two coaches never sends
+   * one's entries under the other's name. Absent on entries kept before it was recorded.
+   */
+  madeBy?: string | null
   athleteId: string
   athleteName: string
   elementName: string

@@ -4,6 +4,7 @@ import type { EventResult } from '@shared/schemas/progress'
 import { ApiError } from '@/api/http'
 import { conflictRecord, recordEvent } from '@/api/progress'
 import { clearOfflineData } from '@/offline/caches'
+import { useSessionStore } from './session'
 import {
   closeOutbox,
   listEntries,
@@ -27,12 +28,22 @@ export const useOutboxStore = defineStore('outbox', () => {
   const sending = ref(false)
   const loaded = ref(false)
   const sentListeners = new Set<(result: EventResult) => void>()
+  const session = useSessionStore()
+  // Set at sign-out: a send under way stores nothing more on the tablet, and none starts.
+  let stopping = false
+  let sendingDone: Promise<void> = Promise.resolve()
 
-  const waiting = computed(() => entries.value.filter((e) => e.status === 'waiting'))
-  const refused = computed(() => entries.value.filter((e) => e.status === 'refused'))
+  /** The entries of the person signed in (and any kept before entries named their maker). */
+  const mine = computed(() => {
+    const me = session.me?.user.id ?? null
+    return entries.value.filter((e) => !e.madeBy || e.madeBy === me)
+  })
+  const waiting = computed(() => mine.value.filter((e) => e.status === 'waiting'))
+  const refused = computed(() => mine.value.filter((e) => e.status === 'refused'))
 
   /** Reads the kept entries (after a reload) and sends any that wait. */
   async function load() {
+    stopping = false
     try {
       entries.value = await listEntries()
     } catch {
@@ -44,7 +55,7 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   /** The newest kept entry on a record, whose predicted state the screens show. */
   function latestFor(athleteId: string, elementId: string): OutboxEntry | undefined {
-    return [...entries.value]
+    return [...mine.value]
       .reverse()
       .find((e) => e.athleteId === athleteId && e.input.elementId === elementId)
   }
@@ -56,6 +67,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     const seq = Math.max(0, ...entries.value.map((e) => e.seq)) + 1
     const kept: OutboxEntry = {
       ...entry,
+      madeBy: session.me?.user.id ?? null,
       seq,
       madeAt: new Date().toISOString(),
       status: 'waiting',
@@ -85,10 +97,13 @@ export const useOutboxStore = defineStore('outbox', () => {
    * wait for the next chance); a refusal is kept for the coach and holds back its record only.
    */
   async function flush() {
-    if (sending.value) return
+    if (sending.value || stopping) return
     sending.value = true
+    let done = () => {}
+    sendingDone = new Promise((resolve) => (done = resolve))
     try {
       for (const { clientEventId } of [...waiting.value].sort((a, b) => a.seq - b.seq)) {
+        if (stopping) return
         // Read afresh: sending an earlier entry rewrites what this one expects.
         const entry = entries.value.find((e) => e.clientEventId === clientEventId)
         if (!entry || entry.status !== 'waiting') continue
@@ -100,10 +115,12 @@ export const useOutboxStore = defineStore('outbox', () => {
           result = await recordEvent(entry.clubId, entry.athleteId, entry.input)
         } catch (err) {
           if (!(err instanceof ApiError) || err.status === 0 || err.status >= 500) return
-          if (err.status === 401) return
+          if (err.status === 401 || stopping) return
           await refuse(entry, err.message, conflictRecord(err))
           continue
         }
+        // Signed out meanwhile: the tablet keeps nothing more (the server has the entry).
+        if (stopping) return
         await settleEntry(entry.clientEventId, result.eventId)
         entries.value = entries.value
           .filter((e) => e.clientEventId !== entry.clientEventId)
@@ -116,6 +133,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       }
     } finally {
       sending.value = false
+      done()
     }
   }
 
@@ -148,8 +166,13 @@ export const useOutboxStore = defineStore('outbox', () => {
     entries.value = entries.value.filter((e) => e.clientEventId !== clientEventId)
   }
 
-  /** At sign-out: forgets every kept entry and the kept API answers. */
+  /**
+   * At sign-out: forgets every kept entry (anyone's) and the kept API answers, once a send under
+   * way has ended, so that nothing writes to the tablet afterwards.
+   */
   async function clear() {
+    stopping = true
+    await sendingDone
     entries.value = []
     await closeOutbox()
     await clearOfflineData()

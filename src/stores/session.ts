@@ -4,6 +4,7 @@ import type { Me, SignInInput } from '@shared/schemas/auth'
 import * as api from '@/api/auth'
 import { ApiError, setUnauthorizedListener } from '@/api/http'
 import { forgetRecentPicks } from '@/composables/recentPicks'
+import { forgetApiAnswers } from '@/offline/caches'
 
 /** Who is signed in, their clubs and the club they are working in. */
 export const useSessionStore = defineStore('session', () => {
@@ -20,8 +21,11 @@ export const useSessionStore = defineStore('session', () => {
 
   function clear() {
     me.value = null
-    // Nothing about athletes stays on the device once the session is over.
+    // Nothing about athletes stays on the device once the session is over: a session that
+    // expires (a 401) takes the kept API answers with it; the entries still waiting stay, for
+    // their maker to send (src/stores/outbox.ts).
     forgetRecentPicks()
+    void forgetApiAnswers().catch(() => undefined)
   }
   setUnauthorizedListener(clear)
 

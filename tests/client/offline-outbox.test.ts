@@ -7,6 +7,7 @@ import * as api from '@/api/progress'
 import type { OutboxEntry } from '@/offline/outbox-db'
 import { predictRecord } from '@/offline/predict'
 import { useOutboxStore } from '@/stores/outbox'
+import { useSessionStore } from '@/stores/session'
 import { athleteId, clubId, elementId, recordDetail } from './progress-helpers'
 
 vi.mock('@/api/progress', async (importOriginal) => ({
@@ -15,17 +16,26 @@ vi.mock('@/api/progress', async (importOriginal) => ({
 }))
 // The tablet's keeping, in memory: what the store asks of IndexedDB.
 const kept = new Map<string, OutboxEntry>()
+/** What was done to the tablet's keeping, in order. */
+const keeping: string[] = []
 vi.mock('@/offline/outbox-db', () => ({
   listEntries: async () => [...kept.values()].sort((a, b) => a.seq - b.seq),
   putEntry: async (e: OutboxEntry) => void kept.set(e.clientEventId, e),
   settleEntry: async (id: string, eventId: string | null) => {
+    keeping.push('settle')
     for (const e of kept.values())
       if (eventId && e.input.expectedLastEventId === id) e.input.expectedLastEventId = eventId
     kept.delete(id)
   },
   closeOutbox: async () => undefined,
 }))
-vi.mock('@/offline/caches', () => ({ clearOfflineData: async () => kept.clear() }))
+vi.mock('@/offline/caches', () => ({
+  clearOfflineData: async () => {
+    keeping.push('clear')
+    kept.clear()
+  },
+  forgetApiAnswers: async () => undefined,
+}))
 
 const uuid = (n: number) => `00000000-0000-4000-8000-${String(n).padStart(12, '0')}`
 
@@ -118,6 +128,7 @@ function keep(n: number, input: ProgressEventInput & { clientEventId: string }) 
 
 beforeEach(() => {
   kept.clear()
+  keeping.length = 0
   setActivePinia(createPinia())
   vi.mocked(api.recordEvent).mockReset()
 })
@@ -212,6 +223,65 @@ describe('useOutboxStore', () => {
 
     await keep(0, entry('step', { stepIndex: 0 }, 2))
     await outbox.discard(uuid(2))
+    expect(outbox.entries).toHaveLength(0)
+    expect(kept.size).toBe(0)
+  })
+})
+
+describe('useOutboxStore on a tablet shared by two people', () => {
+  const signedInAs = (id: string) => {
+    useSessionStore().me = { user: { id } } as never
+  }
+
+  it('sends only the entries of the person signed in, and the others once their maker is back', async () => {
+    const outbox = useOutboxStore()
+    outbox.online = false
+    signedInAs('coach-a')
+    await keep(0, entry('step', { stepIndex: 0 }, 1))
+    signedInAs('coach-b')
+    expect(outbox.waiting).toHaveLength(0)
+    expect(outbox.latestFor(athleteId, elementId)).toBeUndefined()
+    vi.mocked(api.recordEvent).mockResolvedValue({
+      eventId: uuid(101),
+      record: recordDetail({ stepIndex: 0 }),
+      checks: [],
+      replayed: false,
+    })
+    outbox.online = true
+    await outbox.flush()
+    expect(api.recordEvent).not.toHaveBeenCalled()
+    expect(kept.size).toBe(1)
+
+    signedInAs('coach-a')
+    expect(outbox.waiting).toHaveLength(1)
+    await outbox.flush()
+    expect(api.recordEvent).toHaveBeenCalledTimes(1)
+    expect(kept.size).toBe(0)
+  })
+
+  it('keeps nothing from a send that ends after sign-out, and sends nothing more', async () => {
+    const outbox = useOutboxStore()
+    outbox.online = false
+    signedInAs('coach-a')
+    await keep(0, entry('step', { stepIndex: 0 }, 1))
+    await keep(1, entry('step', { stepIndex: 1, expectedLastEventId: uuid(1) }, 2))
+    let answer: (value: Awaited<ReturnType<typeof api.recordEvent>>) => void = () => {}
+    vi.mocked(api.recordEvent).mockImplementationOnce(
+      () => new Promise((resolve) => (answer = resolve)),
+    )
+    outbox.online = true
+    const sending = outbox.flush()
+    await vi.waitFor(() => expect(api.recordEvent).toHaveBeenCalledTimes(1))
+    const clearing = outbox.clear()
+    answer({
+      eventId: uuid(101),
+      record: recordDetail({ stepIndex: 0 }),
+      checks: [],
+      replayed: false,
+    })
+    await Promise.all([sending, clearing])
+    expect(api.recordEvent).toHaveBeenCalledTimes(1)
+    expect(keeping).toEqual(['clear'])
     expect(outbox.entries).toHaveLength(0)
     expect(kept.size).toBe(0)
   })

@@ -215,6 +215,13 @@ describe('running an audit', () => {
     expect((await older(await auditInputHash(inputs, {}, 1))).unchanged).toBe(true)
     // The same inputs hashed the second way do not match a first-version row.
     expect((await older(q2.audit.inputHash)).unchanged).toBe(false)
+    // A version this release does not know (stored by a later one) is refused, not guessed.
+    await database.db
+      .update(audits)
+      .set({ hashVersion: 3 })
+      .where(and(eq(audits.clubId, fx.club.id), eq(audits.id, made[0]!)))
+    const refused = await director.post(`${base}/audits/${made[0]}/recheck`).expect(409)
+    expect(refused.body.error.code).toBe('hash_version_unknown')
     await database.db
       .delete(audits)
       .where(and(eq(audits.clubId, fx.club.id), inArray(audits.id, made)))

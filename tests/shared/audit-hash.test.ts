@@ -107,6 +107,17 @@ describe('auditInputHash by version', () => {
     expect(await auditInputHash(inputs, {}, 1)).toBe(expected)
   })
 
+  it('version 1 gives, for the shared example, the hashes the code before version 2 stored', async () => {
+    // Recorded on 2026-12-02 by running the first version's code (commit 7b5bdaa) over the shared
+    // example: audits stored with these hashes must re-check as unchanged for good.
+    expect(await auditInputHash(inputs, {}, 1)).toBe(
+      'c2447220a8d91fe78c87240196b3bec046d2c6859822b768e4db7629ad0336f1',
+    )
+    expect(await auditInputHash(inputs, { gapThresholdSteps: 3 }, 1)).toBe(
+      '067d7e6bc6c6a5bb07577948c2ecb8ff2d88242d85e035f47180c80dd75df1da',
+    )
+  })
+
   it('version 2 is the SHA-256 of the rest as canonical JSON, a newline, then the prints', async () => {
     const { records: list, ...rest } = described
     const text = canonicalJson({ inputs: rest, options: resolveAuditOptions({}) })

@@ -71,6 +71,11 @@ function flatInKeyOrder(object: Record<string, unknown>): boolean {
 export type AuditHashVersion = 1 | 2
 export const auditHashVersion: AuditHashVersion = 2
 
+/** Whether a stored version is one this code can make (a newer one may come from a later release). */
+export function isAuditHashVersion(version: number): version is AuditHashVersion {
+  return version === 1 || version === 2
+}
+
 /**
  * SHA-256 (hex) of the inputs and resolved options, through the Web Crypto API so the module
  * stays free of I/O and runs in the browser and in Node alike. Defaults are filled in before
