@@ -23,13 +23,6 @@ import { replayedTimeline } from './progress-records.ts'
 
 /** Athletes whose records one query reads: about 20,000 rows for 200 athletes. */
 const defaultAthletesPerBatch = 200
-/**
- * Batches asked for beyond the one being worked through. Each query's rows are parsed as they
- * arrive, so two on their way keep the database reading while this process parses; at most
- * three batches' rows are in memory at once.
- */
-const batchesAhead = 2
-
 /** Lets the event loop run whatever is waiting (I/O, timers) before going on. */
 const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve))
 
@@ -113,8 +106,10 @@ export async function gatherInputs(
   const paces: Record<string, number> = {}
   const window = paceWindow(asOf)
   const ids = roster.map((a) => a.id).sort()
-  const readBatch = (from: number) =>
-    db
+  for (let from = 0; from < ids.length; from += athletesPerBatch) {
+    // One batch after another: inside the snapshot's transaction its one connection runs one
+    // query at a time anyway, so asking for the next batch early would only queue it.
+    const recordRows = await db
       .select({
         athleteId: progressRecords.athleteId,
         elementId: progressRecords.elementId,
@@ -127,24 +122,6 @@ export async function gatherInputs(
           inArray(progressRecords.athleteId, ids.slice(from, from + athletesPerBatch)),
         ),
       )
-      .execute()
-  // The next batches are asked for before this one is worked through, so the database reads them
-  // meanwhile (on a transaction's one connection they simply wait their turn).
-  const asked: Promise<Awaited<ReturnType<typeof readBatch>>>[] = []
-  let nextFrom = 0
-  const askAhead = () => {
-    while (asked.length < batchesAhead + 1 && nextFrom < ids.length) {
-      const batch = readBatch(nextFrom)
-      // Should an earlier batch fail, a later one is not awaited: its failure is not the news.
-      batch.catch(() => undefined)
-      asked.push(batch)
-      nextFrom += athletesPerBatch
-    }
-  }
-  askAhead()
-  while (asked.length > 0) {
-    const recordRows = await asked.shift()!
-    askAhead()
     for (const row of recordRows) {
       const timeline =
         row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))
