@@ -1,67 +1,32 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type TestAgent from 'supertest/lib/agent.js'
-import type { Database } from '../../server/db/client.ts'
-import { createAthlete } from '../../server/services/athletes.ts'
-import { createSquad } from '../../server/services/squads.ts'
 import type { BatchPreview } from '../../shared/schemas/progress-batch.ts'
-import { freshDatabase } from '../support/database.ts'
-import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
+import {
+  closeBatchClub,
+  newBatchSquad,
+  openBatchClub,
+  type BatchClub,
+} from '../support/batch-club.ts'
 
 // GET /squads/:squadId/progress-batch: the squad logging list, read-only, which the tablet's
 // service worker keeps for offline use. It is the dry run's answer with no entries. The rules
 // behind the expected records and checks are the product brief's (common practice, no published
 // source); the step names, criteria and minimum days are the standard catalogue's.
 
-let database: Database
-let t: TestApp
-let fx: Awaited<ReturnType<typeof clubWithPeople>>
-let director: TestAgent
-let coach: TestAgent
-let clinician: TestAgent
-let base: string
-let tucks: { backTuck: string; frontTuck: string }
+let club: BatchClub
+let director: BatchClub['director']
+let coach: BatchClub['coach']
+let clinician: BatchClub['clinician']
+let base: BatchClub['base']
+let tucks: BatchClub['tucks']
 
 beforeAll(async () => {
-  database = await freshDatabase()
-  t = await testApp(database)
-  fx = await clubWithPeople(database.db, 'batchlist')
-  director = await signedIn(t, fx.people.director.email)
-  coach = await signedIn(t, fx.people.coach.email)
-  clinician = await signedIn(t, fx.people.clinician.email)
-  base = `/api/clubs/${fx.club.id}`
-  tucks = await floorTucks(database.db, fx.club.id)
+  club = await openBatchClub('batchlist')
+  ;({ director, coach, clinician, base, tucks } = club)
 })
-afterAll(async () => {
-  await t.close()
-  await database.close()
-})
+afterAll(() => closeBatchClub(club))
 
-async function newSquad(size: number, coached = true) {
-  const squad = await createSquad(database.db, fx.club.id, {
-    name: `List ${crypto.randomUUID().slice(0, 6)}`,
-    level: 'junior',
-    discipline: 'artistic-women',
-  })
-  if (coached)
-    await director
-      .put(`${base}/squads/${squad.id}/coaches`)
-      .send({ userIds: [fx.people.coach.id] })
-      .expect(200)
-  const athletes = []
-  for (let i = 0; i < size; i++) {
-    athletes.push(
-      await createAthlete(database.db, fx.club.id, {
-        givenName: `Lia ${i}`,
-        familyName: `Reed ${String.fromCharCode(65 + i)}`,
-        birthYear: 2013,
-        squadId: squad.id,
-        discipline: 'artistic-women',
-      }),
-    )
-  }
-  return { squad, athletes }
-}
+const newSquad = (size: number, coached = true) =>
+  newBatchSquad(club, size, { coached, givenName: 'Lia', familyName: 'Reed' })
 
 const list = (squadId: string) => `${base}/squads/${squadId}/progress-batch`
 

@@ -1,79 +1,40 @@
-import { and, count, eq, inArray, sql } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type TestAgent from 'supertest/lib/agent.js'
 import { replayRecord } from '../../shared/domain/progress.ts'
-import type { Database } from '../../server/db/client.ts'
 import { progressEvents, progressRecords } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { getElement, replaceSteps } from '../../server/services/catalogue.ts'
 import { elementContext, toDomainEvent } from '../../server/services/progress-records.ts'
 import { saveBatch } from '../../server/services/progress-batch.ts'
-import { createSquad } from '../../server/services/squads.ts'
 import { batchInputSchema } from '../../shared/schemas/progress-batch.ts'
-import { freshDatabase } from '../support/database.ts'
-import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
+import {
+  closeBatchClub,
+  eventCount,
+  newBatchSquad,
+  openBatchClub,
+  type BatchClub,
+} from '../support/batch-club.ts'
+import { clubWithPeople } from '../support/fixtures.ts'
 
 // A squad batch against a steps change made at the same moment, and the batch's input checks.
 // The rules are the product brief's (common practice, no published source); the worked examples
 // beside each case are hand-worked from the standard catalogue's back tuck progression.
 
-let database: Database
-let t: TestApp
-let fx: Awaited<ReturnType<typeof clubWithPeople>>
-let director: TestAgent
-let coach: TestAgent
-let base: string
-let tucks: { backTuck: string; frontTuck: string }
+let club: BatchClub
+let database: BatchClub['database']
+let fx: BatchClub['fx']
+let coach: BatchClub['coach']
+let base: BatchClub['base']
+let tucks: BatchClub['tucks']
 
 beforeAll(async () => {
-  database = await freshDatabase()
-  t = await testApp(database)
-  fx = await clubWithPeople(database.db, 'batchrace')
-  director = await signedIn(t, fx.people.director.email)
-  coach = await signedIn(t, fx.people.coach.email)
-  base = `/api/clubs/${fx.club.id}`
-  tucks = await floorTucks(database.db, fx.club.id)
+  club = await openBatchClub('batchrace')
+  ;({ database, fx, coach, base, tucks } = club)
 })
-afterAll(async () => {
-  await t.close()
-  await database.close()
-})
+afterAll(() => closeBatchClub(club))
 
-async function newSquad(size: number) {
-  const squad = await createSquad(database.db, fx.club.id, {
-    name: `Race ${crypto.randomUUID().slice(0, 6)}`,
-    level: 'junior',
-    discipline: 'artistic-women',
-  })
-  await director
-    .put(`${base}/squads/${squad.id}/coaches`)
-    .send({ userIds: [fx.people.coach.id] })
-    .expect(200)
-  const athletes = []
-  for (let i = 0; i < size; i++) {
-    athletes.push(
-      await createAthlete(database.db, fx.club.id, {
-        givenName: `Ada ${i}`,
-        familyName: `Vale ${String.fromCharCode(65 + i)}`,
-        birthYear: 2013,
-        squadId: squad.id,
-        discipline: 'artistic-women',
-      }),
-    )
-  }
-  return { squad, athletes }
-}
-
-async function eventsOf(athleteIds: string[]) {
-  const [row] = await database.db
-    .select({ n: count() })
-    .from(progressEvents)
-    .where(
-      and(eq(progressEvents.clubId, fx.club.id), inArray(progressEvents.athleteId, athleteIds)),
-    )
-  return row!.n
-}
+const newSquad = (size: number) => newBatchSquad(club, size, { familyName: 'Vale' })
+const eventsOf = (athleteIds: string[]) => eventCount(club, athleteIds)
 
 const batch = (squadId: string) => `${base}/squads/${squadId}/progress-batch`
 const single = (athleteId: string) => `${base}/athletes/${athleteId}/events`

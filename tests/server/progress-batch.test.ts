@@ -1,77 +1,36 @@
-import { and, count, eq, inArray } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type TestAgent from 'supertest/lib/agent.js'
-import type { Database } from '../../server/db/client.ts'
-import { progressEvents } from '../../server/db/schema.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import type { BatchPreview } from '../../shared/schemas/progress-batch.ts'
-import { freshDatabase } from '../support/database.ts'
-import { testApp, type TestApp } from '../support/app.ts'
-import { clubWithPeople, floorTucks, signedIn } from '../support/fixtures.ts'
+import {
+  closeBatchClub,
+  eventCount,
+  newBatchSquad,
+  openBatchClub,
+  type BatchClub,
+} from '../support/batch-club.ts'
 
 // Entries the tablet names (clientEventId) are stored once; a squad's batch is checked by the
 // same rules as one entry and saved all or nothing. The rules are the product brief's (common
 // practice, no published source); the step names and criteria are the standard catalogue's.
 
-let database: Database
-let t: TestApp
-let fx: Awaited<ReturnType<typeof clubWithPeople>>
-let director: TestAgent
-let coach: TestAgent
-let clinician: TestAgent
-let base: string
-let tucks: { backTuck: string; frontTuck: string }
+let club: BatchClub
+let database: BatchClub['database']
+let fx: BatchClub['fx']
+let director: BatchClub['director']
+let coach: BatchClub['coach']
+let clinician: BatchClub['clinician']
+let base: BatchClub['base']
+let tucks: BatchClub['tucks']
 
 beforeAll(async () => {
-  database = await freshDatabase()
-  t = await testApp(database)
-  fx = await clubWithPeople(database.db, 'batch')
-  director = await signedIn(t, fx.people.director.email)
-  coach = await signedIn(t, fx.people.coach.email)
-  clinician = await signedIn(t, fx.people.clinician.email)
-  base = `/api/clubs/${fx.club.id}`
-  tucks = await floorTucks(database.db, fx.club.id)
+  club = await openBatchClub('batch')
+  ;({ database, fx, director, coach, clinician, base, tucks } = club)
 })
-afterAll(async () => {
-  await t.close()
-  await database.close()
-})
+afterAll(() => closeBatchClub(club))
 
-async function newSquad(size: number) {
-  const squad = await createSquad(database.db, fx.club.id, {
-    name: `Batch ${crypto.randomUUID().slice(0, 6)}`,
-    level: 'junior',
-    discipline: 'artistic-women',
-  })
-  await director
-    .put(`${base}/squads/${squad.id}/coaches`)
-    .send({ userIds: [fx.people.coach.id] })
-    .expect(200)
-  const athletes = []
-  for (let i = 0; i < size; i++) {
-    athletes.push(
-      await createAthlete(database.db, fx.club.id, {
-        givenName: `Ada ${i}`,
-        familyName: `Quill ${String.fromCharCode(65 + i)}`,
-        birthYear: 2013,
-        squadId: squad.id,
-        discipline: 'artistic-women',
-      }),
-    )
-  }
-  return { squad, athletes }
-}
-
-async function eventsOf(athleteIds: string[]) {
-  const [row] = await database.db
-    .select({ n: count() })
-    .from(progressEvents)
-    .where(
-      and(eq(progressEvents.clubId, fx.club.id), inArray(progressEvents.athleteId, athleteIds)),
-    )
-  return row!.n
-}
+const newSquad = (size: number) => newBatchSquad(club, size, { familyName: 'Quill' })
+const eventsOf = (athleteIds: string[]) => eventCount(club, athleteIds)
 
 const step = (elementId: string, stepIndex: number, extra: Record<string, unknown> = {}) => ({
   elementId,
