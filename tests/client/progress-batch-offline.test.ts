@@ -1,7 +1,4 @@
-import { flushPromises, type VueWrapper } from '@vue/test-utils'
-import { NCheckbox } from 'naive-ui'
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
-import type { BatchPreview, BatchRow } from '@shared/schemas/progress-batch'
 import { ApiError } from '@/api/http'
 import * as progressApi from '@/api/progress'
 import * as api from '@/api/progressBatch'
@@ -9,7 +6,8 @@ import ProgressBatchPanel from '@/components/progress/ProgressBatchPanel.vue'
 import { notKeptMessage } from '@/composables/useBatchList'
 import type { OutboxEntry } from '@/offline/outbox-db'
 import { useOutboxStore } from '@/stores/outbox'
-import { clubId, elementId, eventIds, mountInProviders, steps, wait } from './progress-helpers'
+import { athletes, byTest, checkbox, preview, row, save, settle, squadId } from './batch-helpers'
+import { clubId, elementId, eventIds, mountInProviders, steps } from './progress-helpers'
 
 // Squad logging without a network: the list the service worker kept, entries kept on the
 // tablet one per athlete, and the list moved on by them. The progression is the helpers' back
@@ -28,39 +26,6 @@ vi.mock('@/offline/outbox-db', () => ({
   closeOutbox: async () => undefined,
 }))
 
-const squadId = '55555555-5555-4555-8555-555555555555'
-const athletes = [
-  '66666666-6666-4666-8666-666666666601',
-  '66666666-6666-4666-8666-666666666602',
-  '66666666-6666-4666-8666-666666666603',
-]
-const batchSteps = steps.map((s, index) => ({ index, name: s.name, criterion: s.criterion }))
-const row = (i: number, partial: Partial<BatchRow> = {}): BatchRow => ({
-  athleteId: athletes[i]!,
-  givenName: `Ada ${i}`,
-  familyName: 'Quill',
-  elementId,
-  stepIndex: 0,
-  highestStepIndex: 0,
-  stepReachedOn: '2026-11-01',
-  paused: false,
-  pauseReason: null,
-  plannedStepIndex: null,
-  lastEventOn: '2026-11-01',
-  lastEventId: eventIds[0]!,
-  flagged: false,
-  nextStep: { index: 1, name: steps[1]!.name, criterion: steps[1]!.criterion },
-  checks: [],
-  entryIndex: null,
-  ...partial,
-})
-const preview = (rows: BatchRow[]): BatchPreview => ({
-  squad: { id: squadId, name: 'Kites' },
-  elements: [
-    { id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6, steps: batchSteps },
-  ],
-  rows,
-})
 const atTop = row(1, {
   stepIndex: 5,
   highestStepIndex: 5,
@@ -103,16 +68,6 @@ const keptEntry = (tabletId: string, status: OutboxEntry['status']): OutboxEntry
   current: null,
 })
 
-const byTest = (name: string) => [
-  ...document.querySelectorAll<HTMLElement>(`[data-test="${name}"]`),
-]
-async function settle() {
-  await flushPromises()
-  await wait(5)
-  await flushPromises()
-}
-const checkbox = (wrapper: VueWrapper, i: number) => wrapper.findAllComponents(NCheckbox)[i]!
-const save = () => byTest('batch-save')[0] as HTMLButtonElement
 const mount = () =>
   mountInProviders(ProgressBatchPanel, { clubId, squadId, elementId, counterpartId: null })
 

@@ -1,12 +1,20 @@
-import { flushPromises, type VueWrapper } from '@vue/test-utils'
-import { NCheckbox } from 'naive-ui'
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
-import type { BatchPreview, BatchRow } from '@shared/schemas/progress-batch'
 import { ApiError } from '@/api/http'
 import * as api from '@/api/progressBatch'
 import ProgressBatchPanel from '@/components/progress/ProgressBatchPanel.vue'
 import type { OutboxEntry } from '@/offline/outbox-db'
-import { clubId, elementId, eventIds, mountInProviders, steps, wait } from './progress-helpers'
+import {
+  athletes,
+  batchSteps,
+  byTest,
+  checkbox,
+  preview,
+  row,
+  save,
+  settle,
+  squadId,
+} from './batch-helpers'
+import { clubId, elementId, eventIds, mountInProviders } from './progress-helpers'
 
 vi.mock('@/api/progressBatch', () => ({ listBatch: vi.fn(), saveBatch: vi.fn() }))
 // The tablet's keeping, in memory: what the outbox asks of IndexedDB.
@@ -17,56 +25,6 @@ vi.mock('@/offline/outbox-db', () => ({
   settleEntry: async (id: string) => void kept.delete(id),
   closeOutbox: async () => undefined,
 }))
-
-const squadId = '55555555-5555-4555-8555-555555555555'
-const athletes = [
-  '66666666-6666-4666-8666-666666666601',
-  '66666666-6666-4666-8666-666666666602',
-  '66666666-6666-4666-8666-666666666603',
-]
-// A common trampoline progression for a back tuck (common practice, no published source).
-const batchSteps = steps.map((s, index) => ({ index, name: s.name, criterion: s.criterion }))
-const row = (i: number, partial: Partial<BatchRow> = {}): BatchRow => ({
-  athleteId: athletes[i]!,
-  givenName: `Ada ${i}`,
-  familyName: 'Quill',
-  elementId,
-  stepIndex: 0,
-  highestStepIndex: 0,
-  stepReachedOn: '2026-11-01',
-  paused: false,
-  pauseReason: null,
-  plannedStepIndex: null,
-  lastEventOn: '2026-11-01',
-  lastEventId: eventIds[0]!,
-  flagged: false,
-  nextStep: {
-    index: 1,
-    name: 'Rotation in the spotting rig',
-    criterion: 'Five rotations landed on the feet',
-  },
-  checks: [],
-  entryIndex: null,
-  ...partial,
-})
-const preview = (rows: BatchRow[]): BatchPreview => ({
-  squad: { id: squadId, name: 'Kites' },
-  elements: [
-    { id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6, steps: batchSteps },
-  ],
-  rows,
-})
-
-const byTest = (name: string) => [
-  ...document.querySelectorAll<HTMLElement>(`[data-test="${name}"]`),
-]
-async function settle() {
-  await flushPromises()
-  await wait(5)
-  await flushPromises()
-}
-const checkbox = (wrapper: VueWrapper, i: number) => wrapper.findAllComponents(NCheckbox)[i]!
-const save = () => byTest('batch-save')[0] as HTMLButtonElement
 
 beforeEach(() => {
   kept.clear()
