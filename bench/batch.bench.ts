@@ -1,5 +1,6 @@
 import { createAthlete } from '../server/services/athletes.ts'
-import { createElement, listElements } from '../server/services/catalogue.ts'
+import { listElements } from '../server/services/catalogue.ts'
+import { createElement } from '../server/services/catalogue-writes.ts'
 import { createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { saveBatch } from '../server/services/progress-batch.ts'

@@ -8,19 +8,11 @@ import {
 } from '../../shared/schemas/catalogue.ts'
 import type { AppContext } from '../context.ts'
 import { sendCsv, sendImportResult } from '../http/responses.ts'
-import {
-  createElement,
-  deleteElement,
-  exportCsv,
-  getElement,
-  importElements,
-  listElements,
-  listTemplates,
-  replacePrerequisites,
-  replaceSteps,
-  updateElement,
-  updateTemplate,
-} from '../services/catalogue.ts'
+import { getElement, listElements } from '../services/catalogue.ts'
+import { exportCsv, importElements } from '../services/catalogue-csv.ts'
+import { replacePrerequisites, replaceSteps } from '../services/catalogue-steps.ts'
+import { listTemplates, updateTemplate } from '../services/catalogue-templates.ts'
+import { createElement, deleteElement, updateElement } from '../services/catalogue-writes.ts'
 import type { ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such element.') })

@@ -4,7 +4,7 @@ import { clubInputSchema, type ClubInput } from '../../shared/schemas/clubs.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { clubs } from '../db/schema.ts'
 import { installAuditDefaults } from './audit-profiles.ts'
-import { installStandardCatalogue } from './catalogue.ts'
+import { installStandardCatalogue } from './catalogue-templates.ts'
 
 /** A new club, starting from the standard catalogue and progression templates. */
 export async function createClub(db: DbOrTx, input: ClubInput) {
