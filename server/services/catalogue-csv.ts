@@ -13,7 +13,7 @@ import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { elements, elementSteps } from '../db/schema.ts'
 import { toCsv } from '../http/csv.ts'
-import { elementColumns, listElements } from './catalogue.ts'
+import { elementColumns, listElements, stepRows } from './catalogue.ts'
 import { templateSteps } from './catalogue-templates.ts'
 
 // The catalogue as CSV: a whole file imported at once, and the export in the same columns.
@@ -86,15 +86,7 @@ export async function importElements(
       )
       .returning({ id: elements.id, templateFamily: elements.templateFamily })
     const steps = inserted.flatMap((row) =>
-      families.get(row.templateFamily)!.map((step, position) => ({
-        clubId: access.clubId,
-        elementId: row.id,
-        position,
-        name: step.name,
-        modality: step.modality,
-        criterion: step.criterion,
-        minDays: step.minDays ?? null,
-      })),
+      stepRows(access.clubId, row.id, families.get(row.templateFamily)!),
     )
     await tx.insert(elementSteps).values(steps)
   })

@@ -6,7 +6,7 @@ import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { elementPrerequisites, elements, elementStepMaps, elementSteps } from '../db/schema.ts'
 import { AppError, conflict, notFound } from '../http/errors.ts'
-import { athletesWithRecords, getElement, stepsOf } from './catalogue.ts'
+import { athletesWithRecords, getElement, stepRows, stepsOf } from './catalogue.ts'
 import { recomputeElementRecords } from './progress-records.ts'
 
 // An element's progression and its prerequisites, each replaced as a whole.
@@ -18,17 +18,7 @@ export async function insertSteps(
   elementId: string,
   steps: readonly ProgressionStep[],
 ) {
-  await db.insert(elementSteps).values(
-    steps.map((step, position) => ({
-      clubId,
-      elementId,
-      position,
-      name: step.name,
-      modality: step.modality,
-      criterion: step.criterion,
-      minDays: step.minDays ?? null,
-    })),
-  )
+  await db.insert(elementSteps).values(stepRows(clubId, elementId, steps))
 }
 
 /**

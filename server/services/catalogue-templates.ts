@@ -10,7 +10,7 @@ import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { elements, elementSteps, progressionTemplates } from '../db/schema.ts'
 import { notFound } from '../http/errors.ts'
-import { elementColumns } from './catalogue.ts'
+import { elementColumns, stepRows } from './catalogue.ts'
 
 // Progression templates: the steps a new element starts from, the club's templates and their
 // edits, and the standard catalogue a new club is given.
@@ -88,16 +88,10 @@ export async function installStandardCatalogue(tx: DbOrTx, clubId: string) {
     )
     .returning({ id: elements.id, templateFamily: elements.templateFamily })
   const steps = inserted.flatMap((row) =>
-    standardTemplates[row.templateFamily as keyof typeof standardTemplates].steps.map(
-      (step, position) => ({
-        clubId,
-        elementId: row.id,
-        position,
-        name: step.name,
-        modality: step.modality,
-        criterion: step.criterion,
-        minDays: step.minDays ?? null,
-      }),
+    stepRows(
+      clubId,
+      row.id,
+      standardTemplates[row.templateFamily as keyof typeof standardTemplates].steps,
     ),
   )
   await tx.insert(elementSteps).values(steps)

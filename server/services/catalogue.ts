@@ -9,8 +9,8 @@ import { elementPrerequisites, elements, elementSteps, progressEvents } from '..
 import { notFound } from '../http/errors.ts'
 
 // The catalogue's reads: elements with their counterparts, one element with its steps and
-// prerequisites, and the mapping from an element's description to its stored columns that the
-// writes share. Writes are in catalogue-writes.ts, steps and prerequisites in catalogue-steps.ts,
+// prerequisites, and the mappings from an element's description and its steps to their stored
+// columns that the writes share. Writes are in catalogue-writes.ts, steps and prerequisites in catalogue-steps.ts,
 // CSV in catalogue-csv.ts, templates and the standard catalogue in catalogue-templates.ts.
 type ElementRow = typeof elements.$inferSelect
 
@@ -32,6 +32,19 @@ export function elementColumns(input: ElementInput) {
     descriptionKey: derived.descriptionKey,
     counterpartKey: derived.counterpartKey,
   }
+}
+
+/** The stored rows of an element's steps, numbered from 0 in the order given. */
+export function stepRows(clubId: string, elementId: string, steps: readonly ProgressionStep[]) {
+  return steps.map((step, position) => ({
+    clubId,
+    elementId,
+    position,
+    name: step.name,
+    modality: step.modality,
+    criterion: step.criterion,
+    minDays: step.minDays ?? null,
+  }))
 }
 
 function toApi(row: ElementRow, counterpartId: string | null): CatalogueElement {
