@@ -28,14 +28,14 @@ import {
 import { progressionStepsSchema, type ProgressionStep } from '../../shared/schemas/progressions.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
+import { progressEvents } from '../db/schema-athletes.ts'
 import {
   elementPrerequisites,
   elements,
   elementStepMaps,
   elementSteps,
-  progressEvents,
   progressionTemplates,
-} from '../db/schema.ts'
+} from '../db/schema-catalogue.ts'
 import { clips } from '../db/schema-visits.ts'
 import { toCsv } from '../http/csv.ts'
 import { AppError, conflict, notFound } from '../http/errors.ts'
