@@ -3,7 +3,10 @@ import { defineConfig } from 'drizzle-kit'
 export default defineConfig({
   dialect: 'postgresql',
   schema: [
-    './server/db/schema.ts',
+    './server/db/schema-accounts.ts',
+    './server/db/schema-catalogue.ts',
+    './server/db/schema-athletes.ts',
+    './server/db/schema-audits.ts',
     './server/db/schema-visits.ts',
     './server/db/schema-planner.ts',
   ],

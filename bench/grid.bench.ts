@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm'
-import { athletes, progressRecords } from '../server/db/schema.ts'
+import { athletes, progressRecords } from '../server/db/schema-athletes.ts'
 import { createAthlete } from '../server/services/athletes.ts'
 import { listElements } from '../server/services/catalogue.ts'
 import { createElement } from '../server/services/catalogue-writes.ts'

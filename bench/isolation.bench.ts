@@ -1,7 +1,8 @@
 import { performance } from 'node:perf_hooks'
 import { and, eq } from 'drizzle-orm'
 import { hashPassword } from '../server/auth/password.ts'
-import { auditRuns, users } from '../server/db/schema.ts'
+import { users } from '../server/db/schema-accounts.ts'
+import { auditRuns } from '../server/db/schema-audits.ts'
 import { auditBenchAsOf, buildAuditClub } from './audit.bench.ts'
 import { withBenchDatabase } from './harness.ts'
 import {

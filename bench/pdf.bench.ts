@@ -1,6 +1,7 @@
 import { performance } from 'node:perf_hooks'
 import { eq, sql } from 'drizzle-orm'
-import { audits, clubs, users } from '../server/db/schema.ts'
+import { clubs, users } from '../server/db/schema-accounts.ts'
+import { audits } from '../server/db/schema-audits.ts'
 import { runAndStore } from '../server/services/audits.ts'
 import type { ReportPdfJob } from '../shared/schemas/report-pdfs.ts'
 import { demoPassword, seedDemo } from '../seed/demo.ts'

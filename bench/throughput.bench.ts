@@ -1,7 +1,7 @@
 import pino from 'pino'
 import request from 'supertest'
 import { createApp } from '../server/app.ts'
-import { clubs } from '../server/db/schema.ts'
+import { clubs } from '../server/db/schema-accounts.ts'
 import { parseEnv } from '../server/env.ts'
 import { createMailer } from '../server/mail/mailer.ts'
 import { demoPassword, demoPeople, seedDemo } from '../seed/demo.ts'

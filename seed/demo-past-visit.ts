@@ -3,7 +3,7 @@ import { previousQuarter, quarterEnd, quarterOf } from '../shared/domain/quarter
 import { stepsAsOf, type TimelinePoint } from '../shared/domain/progress.ts'
 import { addDaysIso, type RecommendationStatus } from '../shared/domain/visits.ts'
 import type { DbOrTx } from '../server/db/client.ts'
-import { progressRecords } from '../server/db/schema.ts'
+import { progressRecords } from '../server/db/schema-athletes.ts'
 import {
   recommendationEvents,
   recommendations,

@@ -1,6 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm'
 import type { DbOrTx } from '../server/db/client.ts'
-import { athletes, elements } from '../server/db/schema.ts'
+import { athletes } from '../server/db/schema-athletes.ts'
+import { elements } from '../server/db/schema-catalogue.ts'
 import {
   recommendationEvents,
   recommendations,

@@ -2,7 +2,7 @@ import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle'
 import { eq, sql } from 'drizzle-orm'
 import { Lucia, TimeSpan, type DatabaseSession, type DatabaseUser } from 'lucia'
 import type { Db } from '../db/client.ts'
-import { sessions, users } from '../db/schema.ts'
+import { sessions, users } from '../db/schema-accounts.ts'
 
 // Every import of lucia stays in this folder, so that replacing it touches nothing else.
 

@@ -1,15 +1,7 @@
 import { inArray, isNotNull, lt, or, sql } from 'drizzle-orm'
 import type { Db } from '../db/client.ts'
-import {
-  clubArchiveFiles,
-  clubArchives,
-  clubSignups,
-  passwordResets,
-  rateLimits,
-  reportPdfFiles,
-  reportPdfs,
-  sessions,
-} from '../db/schema.ts'
+import { clubSignups, passwordResets, rateLimits, sessions } from '../db/schema-accounts.ts'
+import { clubArchiveFiles, clubArchives, reportPdfFiles, reportPdfs } from '../db/schema-audits.ts'
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime

@@ -3,7 +3,7 @@ import { and, eq, ne } from 'drizzle-orm'
 import type { Request, RequestHandler, Response } from 'express'
 import type { SessionView } from '../../shared/schemas/auth.ts'
 import type { Db } from '../db/client.ts'
-import { sessions } from '../db/schema.ts'
+import { sessions } from '../db/schema-accounts.ts'
 import {
   createLucia,
   generateIdFromEntropySize,

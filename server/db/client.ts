@@ -1,7 +1,13 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import type { Logger } from 'pino'
-import * as schema from './schema.ts'
+import * as accounts from './schema-accounts.ts'
+import * as athletes from './schema-athletes.ts'
+import * as audits from './schema-audits.ts'
+import * as catalogue from './schema-catalogue.ts'
+
+/** The tables and enums the query builder is typed with. */
+export const schema = { ...accounts, ...catalogue, ...athletes, ...audits }
 
 export type Db = NodePgDatabase<typeof schema>
 /** A database handle or an open transaction: services accept either. */

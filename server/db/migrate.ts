@@ -5,8 +5,7 @@ import pg from 'pg'
 import { projectDir } from '../paths.ts'
 import { ensureJobSchema } from '../jobs/queue.ts'
 import { backfillRecordTimelines } from '../services/progress-records.ts'
-import type { Db } from './client.ts'
-import * as schema from './schema.ts'
+import { schema, type Db } from './client.ts'
 
 export const migrationsFolder = join(projectDir, 'drizzle')
 

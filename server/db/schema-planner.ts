@@ -14,10 +14,12 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { Placement, PlanModel } from '../../shared/domain/planner/types.ts'
 import type { PlanOutcome } from '../../shared/schemas/planner.ts'
-import { clubs, modalityEnum, squads, users } from './schema.ts'
+import { clubs, users } from './schema-accounts.ts'
+import { squads } from './schema-athletes.ts'
+import { modalityEnum } from './schema-catalogue.ts'
 
 // The session planner: the club's stations and its saved plans. Club data, keyed by club_id
-// first like every other club table (see schema.ts).
+// first like every other club table (see schema-accounts.ts).
 
 const createdAt = () => timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow()
 

@@ -12,10 +12,12 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core'
 import { recommendationPriorities, recommendationStatuses } from '../../shared/domain/visits.ts'
-import { athletes, clubs, elements, invitations, squads, users } from './schema.ts'
+import { clubs, invitations, users } from './schema-accounts.ts'
+import { athletes, squads } from './schema-athletes.ts'
+import { elements } from './schema-catalogue.ts'
 
 // Clinician visits and their recommendations: club data, keyed by club_id first like every
-// other club table (see schema.ts).
+// other club table (see schema-accounts.ts).
 
 const createdAt = () => timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow()
 

@@ -1,6 +1,6 @@
 import { eq, sql } from 'drizzle-orm'
 import type { Db, DbOrTx } from '../db/client.ts'
-import { mailOutbox } from '../db/schema.ts'
+import { mailOutbox } from '../db/schema-accounts.ts'
 import { queues, type JobQueue } from '../jobs/queue.ts'
 import type { Mail, Mailer } from './mailer.ts'
 

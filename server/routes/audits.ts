@@ -10,7 +10,7 @@ import {
 import { publicOrigin, type AppContext } from '../context.ts'
 import { enqueueMail } from '../mail/outbox.ts'
 import { getAuditRun, submitAuditRun } from '../services/audit-runs.ts'
-import { clubs, memberships, users } from '../db/schema.ts'
+import { clubs, memberships, users } from '../db/schema-accounts.ts'
 import { AppError } from '../http/errors.ts'
 import { sendCsv } from '../http/responses.ts'
 import { exportFileName, gapsCsv, headlineCsv } from '../services/audit-exports.ts'

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { clubSettingsSchema } from '../../shared/schemas/clubs.ts'
 import type { AppContext } from '../context.ts'
-import { clubs } from '../db/schema.ts'
+import { clubs } from '../db/schema-accounts.ts'
 import { removeClipObjects } from '../services/clips.ts'
 import { deleteClub } from '../services/erasure.ts'
 import { everyRole, type ClubRoute } from './club-routes.ts'

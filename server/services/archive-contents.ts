@@ -3,24 +3,22 @@ import type { PgColumn } from 'drizzle-orm/pg-core'
 import { deriveElement, type DifficultyLetter } from '../../shared/domain/catalogue.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { unpackAuditResult } from './audit-storage.ts'
+import { clubs, memberships, users } from '../db/schema-accounts.ts'
 import {
-  ageThresholds,
   athletes,
-  audits,
-  clubs,
   coachSquads,
+  progressEvents,
+  progressRecords,
+  squads,
+} from '../db/schema-athletes.ts'
+import { ageThresholds, audits, requirementProfiles } from '../db/schema-audits.ts'
+import {
   elementPrerequisites,
   elements,
   elementStepMaps,
   elementSteps,
-  memberships,
-  progressEvents,
   progressionTemplates,
-  progressRecords,
-  requirementProfiles,
-  squads,
-  users,
-} from '../db/schema.ts'
+} from '../db/schema-catalogue.ts'
 import {
   countOf,
   csvFile,

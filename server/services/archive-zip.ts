@@ -9,7 +9,7 @@ import {
   type ArchivePhase,
 } from '../../shared/schemas/archives.ts'
 import type { Db } from '../db/client.ts'
-import { clubs } from '../db/schema.ts'
+import { clubs } from '../db/schema-accounts.ts'
 import { archiveFiles } from './archive-contents.ts'
 
 export interface ArchiveProgress {

@@ -9,7 +9,7 @@ import {
 import type { ImportIssue, ImportResult } from '../../shared/schemas/catalogue.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, squads } from '../db/schema.ts'
+import { athletes, squads } from '../db/schema-athletes.ts'
 import { toCsv } from '../http/csv.ts'
 import {
   assertCanReadSquad,

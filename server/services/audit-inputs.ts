@@ -11,13 +11,9 @@ import type {
 } from '../../shared/domain/audit/types.ts'
 import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
-import {
-  ageThresholds,
-  athletes,
-  elementSteps,
-  progressRecords,
-  requirementProfiles,
-} from '../db/schema.ts'
+import { athletes, progressRecords } from '../db/schema-athletes.ts'
+import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
+import { elementSteps } from '../db/schema-catalogue.ts'
 import { listElements } from './catalogue.ts'
 import { replayedTimeline } from './progress-records.ts'
 

@@ -7,7 +7,7 @@ import type { Discipline } from '../../shared/domain/club.ts'
 import type { RequirementProfileInput } from '../../shared/schemas/audits.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { ageThresholds, requirementProfiles } from '../db/schema.ts'
+import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { clubAgeThresholds, clubProfiles } from './audit-inputs.ts'
 

@@ -11,7 +11,7 @@ import { elementInputSchema, type ElementInput } from '../../shared/schemas/elem
 import type { ProgressionStep } from '../../shared/schemas/progressions.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { elements, elementSteps } from '../db/schema.ts'
+import { elements, elementSteps } from '../db/schema-catalogue.ts'
 import { toCsv } from '../http/csv.ts'
 import { elementColumns, listElements, stepRows } from './catalogue.ts'
 import { templateSteps } from './catalogue-templates.ts'

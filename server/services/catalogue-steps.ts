@@ -4,7 +4,12 @@ import type { Prerequisite, StepsUpdate } from '../../shared/schemas/catalogue.t
 import type { ProgressionStep } from '../../shared/schemas/progressions.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { elementPrerequisites, elements, elementStepMaps, elementSteps } from '../db/schema.ts'
+import {
+  elementPrerequisites,
+  elements,
+  elementStepMaps,
+  elementSteps,
+} from '../db/schema-catalogue.ts'
 import { AppError, conflict, notFound } from '../http/errors.ts'
 import { athletesWithRecords, getElement, stepRows, stepsOf } from './catalogue.ts'
 import { recomputeElementRecords } from './progress-records.ts'

@@ -8,7 +8,7 @@ import type { ProgressionTemplateView } from '../../shared/schemas/catalogue.ts'
 import { progressionStepsSchema, type ProgressionStep } from '../../shared/schemas/progressions.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { elements, elementSteps, progressionTemplates } from '../db/schema.ts'
+import { elements, elementSteps, progressionTemplates } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
 import { elementColumns, stepRows } from './catalogue.ts'
 

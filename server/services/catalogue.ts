@@ -5,7 +5,8 @@ import type { ElementDetail, ElementQuery } from '../../shared/schemas/catalogue
 import type { CatalogueElement, ElementInput } from '../../shared/schemas/elements.ts'
 import type { ProgressionStep } from '../../shared/schemas/progressions.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { elementPrerequisites, elements, elementSteps, progressEvents } from '../db/schema.ts'
+import { progressEvents } from '../db/schema-athletes.ts'
+import { elementPrerequisites, elements, elementSteps } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
 
 // The catalogue's reads: elements with their counterparts, one element with its steps and

@@ -2,7 +2,7 @@ import { count, like } from 'drizzle-orm'
 import { clubSlugFromName, clubSlugMaxLength, slugify } from '../../shared/domain/slug.ts'
 import { clubInputSchema, type ClubInput } from '../../shared/schemas/clubs.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { clubs } from '../db/schema.ts'
+import { clubs } from '../db/schema-accounts.ts'
 import { installAuditDefaults } from './audit-profiles.ts'
 import { installStandardCatalogue } from './catalogue-templates.ts'
 

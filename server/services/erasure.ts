@@ -10,30 +10,36 @@ import { athleteErasureSchema, clubDeletionSchema } from '../../shared/schemas/e
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx, Tx } from '../db/client.ts'
 import {
-  ageThresholds,
+  clubs,
+  invitationTokens,
+  invitations,
+  memberships,
+  sessions,
+} from '../db/schema-accounts.ts'
+import {
   athletes,
+  coachSquads,
+  progressEvents,
+  progressRecords,
+  squads,
+} from '../db/schema-athletes.ts'
+import {
+  ageThresholds,
   auditRuns,
   audits,
   clubArchiveFiles,
   clubArchives,
-  clubs,
-  coachSquads,
+  reportPdfFiles,
+  reportPdfs,
+  requirementProfiles,
+} from '../db/schema-audits.ts'
+import {
   elementPrerequisites,
   elementStepMaps,
   elementSteps,
   elements,
-  invitationTokens,
-  invitations,
-  memberships,
-  progressEvents,
-  progressRecords,
   progressionTemplates,
-  reportPdfFiles,
-  reportPdfs,
-  requirementProfiles,
-  sessions,
-  squads,
-} from '../db/schema.ts'
+} from '../db/schema-catalogue.ts'
 import {
   clipReviews,
   clips,

@@ -9,7 +9,7 @@ import {
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { sessionPlans } from '../db/schema-planner.ts'
-import { athletes, progressRecords, squads } from '../db/schema.ts'
+import { athletes, progressRecords, squads } from '../db/schema-athletes.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { recordEvent } from './progress-events.ts'
 import { assertCanReadSquad, assertCanWriteSquad, readableSquadIds } from './scope.ts'

@@ -10,7 +10,8 @@ import type {
 import type { z } from 'zod'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { elements, progressEvents, progressRecords } from '../db/schema.ts'
+import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
+import { elements } from '../db/schema-catalogue.ts'
 import { AppError } from '../http/errors.ts'
 import {
   assertReasonGiven,

@@ -7,13 +7,9 @@ import {
   type ProposedEvent,
 } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
-import {
-  clubs,
-  elementPrerequisites,
-  elements,
-  progressEvents,
-  progressRecords,
-} from '../db/schema.ts'
+import { clubs } from '../db/schema-accounts.ts'
+import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
+import { elementPrerequisites, elements } from '../db/schema-catalogue.ts'
 import { AppError } from '../http/errors.ts'
 import type { ElementContext, EventRow } from './progress-records.ts'
 

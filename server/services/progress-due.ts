@@ -3,7 +3,7 @@ import { compareDue, isProgressDue } from '../../shared/domain/progress-due.ts'
 import type { DueAthlete } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, progressRecords, squads } from '../db/schema.ts'
+import { athletes, progressRecords, squads } from '../db/schema-athletes.ts'
 import { readableSquadIds } from './scope.ts'
 
 /**

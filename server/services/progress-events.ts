@@ -3,7 +3,7 @@ import { replayRecord, type CheckResult, type ProposedEvent } from '../../shared
 import type { EventResult, ProgressEventInput } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { progressEvents, progressRecords } from '../db/schema.ts'
+import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
 import { AppError, conflict } from '../http/errors.ts'
 import {
   assertReasonGiven,

@@ -6,7 +6,9 @@ import {
   type ProposedEvent,
 } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { clubs, elements, elementSteps, progressEvents, progressRecords } from '../db/schema.ts'
+import { clubs } from '../db/schema-accounts.ts'
+import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
+import { elements, elementSteps } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
 import {
   elementContext,

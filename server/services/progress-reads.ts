@@ -5,14 +5,9 @@ import { replayRecord, type CheckResult } from '../../shared/domain/progress.ts'
 import type { MissingSkill, RecordDetail, RecordView } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import {
-  athletes,
-  elementSteps,
-  progressEvents,
-  progressRecords,
-  squads,
-  users,
-} from '../db/schema.ts'
+import { users } from '../db/schema-accounts.ts'
+import { athletes, progressEvents, progressRecords, squads } from '../db/schema-athletes.ts'
+import { elementSteps } from '../db/schema-catalogue.ts'
 import { listElements } from './catalogue.ts'
 import { elementContext, recordView, toDomainEvent } from './progress-records.ts'
 import { assertCanReadSquad, athleteInScope, readableSquadIds } from './scope.ts'

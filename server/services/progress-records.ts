@@ -7,13 +7,8 @@ import {
 import { translateStepIndex } from '../../shared/domain/step-versions.ts'
 import type { RecordView } from '../../shared/schemas/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
-import {
-  elements,
-  elementStepMaps,
-  elementSteps,
-  progressEvents,
-  progressRecords,
-} from '../db/schema.ts'
+import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
+import { elements, elementStepMaps, elementSteps } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
 
 /**

@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, coachSquads, squads } from '../db/schema.ts'
+import { athletes, coachSquads, squads } from '../db/schema-athletes.ts'
 import { AppError, notFound } from '../http/errors.ts'
 import { todayIso } from '../../shared/domain/access.ts'
 import { clinicianSquadIds } from './visit-access.ts'

@@ -1,6 +1,6 @@
 import { and, asc, eq, gte, isNull, lte } from 'drizzle-orm'
 import type { DbOrTx } from '../db/client.ts'
-import { squads } from '../db/schema.ts'
+import { squads } from '../db/schema-athletes.ts'
 import { visitSquads, visits } from '../db/schema-visits.ts'
 
 // A clinician's access to a club derives from their visits: not cancelled, and today between

@@ -6,7 +6,9 @@ import {
   type VisitOutcomes,
 } from '../../shared/domain/visit-outcomes.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { athletes, audits, elements, progressRecords } from '../db/schema.ts'
+import { athletes, progressRecords } from '../db/schema-athletes.ts'
+import { audits } from '../db/schema-audits.ts'
+import { elements } from '../db/schema-catalogue.ts'
 import { recommendationEvents, recommendations, visits } from '../db/schema-visits.ts'
 
 // Reads what the visit outcomes of an audit need: the recommendations of the visits since the

@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
-import { athletes, progressRecords } from '../../server/db/schema.ts'
+import { athletes, progressRecords } from '../../server/db/schema-athletes.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
 import { recordEvent } from '../../server/services/progress-events.ts'

@@ -6,14 +6,13 @@ import { purgeExpired } from '../../server/auth/purge.ts'
 import { plannerStations, sessionPlans } from '../../server/db/schema-planner.ts'
 import type { Database } from '../../server/db/client.ts'
 import {
-  clubArchiveFiles,
-  clubArchives,
   invitationTokens,
   passwordResets,
-  progressEvents,
   sessions,
   users,
-} from '../../server/db/schema.ts'
+} from '../../server/db/schema-accounts.ts'
+import { progressEvents } from '../../server/db/schema-athletes.ts'
+import { clubArchiveFiles, clubArchives } from '../../server/db/schema-audits.ts'
 import { buildClubArchive, type ArchiveProgress } from '../../server/services/archive-zip.ts'
 import { processClubArchive } from '../../server/services/club-archives.ts'
 import {

@@ -1,15 +1,14 @@
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
+import { users } from '../../server/db/schema-accounts.ts'
 import {
   clubArchiveFiles,
   clubArchives,
-  elementPrerequisites,
-  elementStepMaps,
   reportPdfFiles,
   reportPdfs,
-  users,
-} from '../../server/db/schema.ts'
+} from '../../server/db/schema-audits.ts'
+import { elementPrerequisites, elementStepMaps } from '../../server/db/schema-catalogue.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { addMembership } from '../../server/services/members.ts'

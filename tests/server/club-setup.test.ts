@@ -4,7 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { standardCatalogue } from '../../shared/domain/standard-catalogue.ts'
 import { publicOrigin } from '../../server/context.ts'
 import type { Database } from '../../server/db/client.ts'
-import { clubs, elements, invitations } from '../../server/db/schema.ts'
+import { clubs, invitations } from '../../server/db/schema-accounts.ts'
+import { elements } from '../../server/db/schema-catalogue.ts'
 import {
   ClubFileError,
   readClubsCsv,

@@ -1,17 +1,15 @@
 import { and, count, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
+import { clubs, users } from '../../server/db/schema-accounts.ts'
 import {
   athletes,
-  audits,
-  clubs,
-  elements,
-  elementSteps,
   progressEvents,
   progressRecords,
   squads,
-  users,
-} from '../../server/db/schema.ts'
+} from '../../server/db/schema-athletes.ts'
+import { audits } from '../../server/db/schema-audits.ts'
+import { elements, elementSteps } from '../../server/db/schema-catalogue.ts'
 import { prepareDatabase } from '../../server/cli/bootstrap.ts'
 import { boardSummary, getReport, runAndStore } from '../../server/services/audits.ts'
 import { listElements } from '../../server/services/catalogue.ts'

@@ -11,7 +11,7 @@ import { checkClientBuild, clientSources } from '../../server/cli/client-build.t
 import { clusterUrl, ensureDatabase } from '../../server/cli/postgres.ts'
 import { createDatabase, type Database } from '../../server/db/client.ts'
 import { applyMigrations, migrationLockKey, migrationsFolder } from '../../server/db/migrate.ts'
-import { clubs } from '../../server/db/schema.ts'
+import { clubs } from '../../server/db/schema-accounts.ts'
 import { EnvError, parseEnv, parseMigrateEnv } from '../../server/env.ts'
 import { serve } from '../../server/index.ts'
 import { projectDir } from '../../server/paths.ts'

@@ -1,7 +1,7 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { replayRecord } from '../../shared/domain/progress.ts'
-import { progressEvents, progressRecords } from '../../server/db/schema.ts'
+import { progressEvents, progressRecords } from '../../server/db/schema-athletes.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { getElement } from '../../server/services/catalogue.ts'
 import { replaceSteps } from '../../server/services/catalogue-steps.ts'

@@ -6,13 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { clientKey } from '../../server/auth/limits.ts'
 import { purgeExpired } from '../../server/auth/purge.ts'
 import type { Database } from '../../server/db/client.ts'
-import {
-  clubArchiveFiles,
-  clubArchives,
-  passwordResets,
-  rateLimits,
-  sessions,
-} from '../../server/db/schema.ts'
+import { passwordResets, rateLimits, sessions } from '../../server/db/schema-accounts.ts'
+import { clubArchiveFiles, clubArchives } from '../../server/db/schema-audits.ts'
 import { EnvError, parseEnv } from '../../server/env.ts'
 import { createMailer } from '../../server/mail/mailer.ts'
 import { freshDatabase } from '../support/database.ts'

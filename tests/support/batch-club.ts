@@ -1,7 +1,7 @@
 import { and, count, eq, inArray } from 'drizzle-orm'
 import type TestAgent from 'supertest/lib/agent.js'
 import type { Database } from '../../server/db/client.ts'
-import { progressEvents } from '../../server/db/schema.ts'
+import { progressEvents } from '../../server/db/schema-athletes.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { createSquad } from '../../server/services/squads.ts'
 import { testApp, type TestApp } from './app.ts'
