@@ -20,7 +20,7 @@ import { roles } from '../../shared/domain/club.ts'
 // that rows of one club can never point at another club's rows, and so that the club tables can
 // later be distributed by club_id with every key and join staying on one node. Tables looked up
 // without knowing the club (clubs, users, sessions, password_resets, invitation_tokens,
-// rate_limits) are the reference side. tests/server/schema-distribution.test.ts holds the live
+// club_signups, rate_limits, mail_outbox) are the reference side. tests/server/schema-distribution.test.ts holds the live
 // database to that; README "Beyond one database" gives the plan.
 //
 // This file holds the clubs, the people and their access to them, and the tables looked up
