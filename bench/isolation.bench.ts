@@ -1,3 +1,4 @@
+import { spawn } from 'node:child_process'
 import { performance } from 'node:perf_hooks'
 import { and, eq } from 'drizzle-orm'
 import { hashPassword } from '../server/auth/password.ts'
@@ -17,10 +18,14 @@ import {
 } from './load.ts'
 
 const password = 'bench-isolation-2026'
-const audits = 8
+/** Enough audits that the busy p99 stands on a few dozen checks, not a handful. */
+const audits = 16
 /** A steady trickle of health checks, as monitoring and a few people would send. */
 const perSecond = 200
 const idleMs = 1500
+
+/** A process that keeps one core busy at the lowest priority a process can give itself. */
+const spinner = `require('node:os').setPriority(19); for (;;) {}`
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
@@ -77,12 +82,30 @@ export default async function isolationBench() {
         // The worker settles (its last writes, a collection) before the next idle stretch.
         await sleep(500)
       }
+      // The control: a busy loop at the lowest priority, with no database and no audit, for as
+      // long as the audits ran, in turns with idle stretches. What it costs the checks is the
+      // machine's own share (a second core busy at all), which no code of ours can take away.
+      const control: Window[] = []
+      const controlIdle: Window[] = []
+      for (const w of busy) {
+        const from = performance.now()
+        await sleep(idleMs)
+        controlIdle.push({ from, to: performance.now() })
+        const loop = spawn(process.execPath, ['-e', spinner], { stdio: 'ignore' })
+        const started = performance.now()
+        await sleep(w.to - w.from)
+        control.push({ from: started, to: performance.now() })
+        loop.kill('SIGKILL')
+        await sleep(500)
+      }
       await checks.stop()
 
       const failed = checks.responses.filter((r) => r.status !== 200).length
       if (failed) throw new Error(`${failed} health checks did not answer 200`)
       const idleMs99 = p99(within(checks, idle))
       const busyMs99 = p99(within(checks, busy))
+      const controlMs99 = p99(within(checks, control))
+      const controlIdleMs99 = p99(within(checks, controlIdle))
       const seconds = busy.map((w) => ((w.to - w.from) / 1000).toFixed(1)).join(', ')
       console.log(`\nGET /api/health on the web process, ${perSecond} checks a second`)
       console.log(
@@ -92,6 +115,15 @@ export default async function isolationBench() {
         `  baseline (the worker idle, in between): p99 ${idleMs99.toFixed(1)} ms (${within(checks, idle).length} checks)`,
       )
       console.log(`  ratio (p99): ${(busyMs99 / idleMs99).toFixed(2)}×`)
+      console.log(
+        `  control, a busy loop at niceness 19 instead of the audits: p99 ${controlMs99.toFixed(1)} ms against ${controlIdleMs99.toFixed(1)} ms idle, ${(controlMs99 / controlIdleMs99).toFixed(2)}×`,
+      )
+      const spread = (w: Window[]) => {
+        const ms = within(checks, w).sort((a, b) => a - b)
+        const at = (q: number) => ms[Math.min(ms.length - 1, Math.floor(q * ms.length))]!
+        return `p50 ${at(0.5).toFixed(1)}, p90 ${at(0.9).toFixed(1)}, p99 ${at(0.99).toFixed(1)}, worst ${at(1).toFixed(1)} ms`
+      }
+      console.log(`  audits: ${spread(busy)}; idle: ${spread(idle)}`)
     } finally {
       await Promise.all([web.stop(), worker.stop()])
     }
