@@ -1,4 +1,5 @@
 import { spawn } from 'node:child_process'
+import { setPriority } from 'node:os'
 import { performance } from 'node:perf_hooks'
 import { and, eq } from 'drizzle-orm'
 import { hashPassword } from '../server/auth/password.ts'
@@ -25,7 +26,8 @@ const perSecond = 200
 const idleMs = 1500
 
 /** A process that keeps one core busy at the lowest priority a process can give itself. */
-const spinner = `require('node:os').setPriority(19); for (;;) {}`
+const spinner = (ms: number) =>
+  `require('node:os').setPriority(19); const end = Date.now() + ${Math.ceil(ms)}; while (Date.now() < end) {}`
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
@@ -84,18 +86,27 @@ export default async function isolationBench() {
       }
       // The control: a busy loop at the lowest priority, with no database and no audit, for as
       // long as the audits ran, in turns with idle stretches. What it costs the checks is the
-      // machine's own share (a second core busy at all), which no code of ours can take away.
+      // machine's own share of a second core being busy at all, beside the audit's.
       const control: Window[] = []
       const controlIdle: Window[] = []
       for (const w of busy) {
         const from = performance.now()
         await sleep(idleMs)
         controlIdle.push({ from, to: performance.now() })
-        const loop = spawn(process.execPath, ['-e', spinner], { stdio: 'ignore' })
-        const started = performance.now()
-        await sleep(w.to - w.from)
-        control.push({ from: started, to: performance.now() })
-        loop.kill('SIGKILL')
+        // The loop ends by itself shortly after its stretch, should this process die first.
+        const loop = spawn(process.execPath, ['-e', spinner(w.to - w.from + 1000)], {
+          stdio: 'ignore',
+        })
+        loop.on('error', (err) => console.error(`the control loop did not start: ${err.message}`))
+        try {
+          // Lowered from here too, so that it is low from its first instant.
+          if (loop.pid) setPriority(loop.pid, 19)
+          const started = performance.now()
+          await sleep(w.to - w.from)
+          control.push({ from: started, to: performance.now() })
+        } finally {
+          loop.kill('SIGKILL')
+        }
         await sleep(500)
       }
       await checks.stop()

@@ -9,12 +9,7 @@ import type {
   AuditRecord,
   RequirementProfile,
 } from '../../shared/domain/audit/types.ts'
-import {
-  paceWindow,
-  stepsAsOf,
-  timelinePace,
-  type TimelinePoint,
-} from '../../shared/domain/progress.ts'
+import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
@@ -62,7 +57,8 @@ export async function clubAgeThresholds(db: DbOrTx, clubId: string): Promise<Age
  * club's profiles and age bands.
  *
  * The steps come from each record's stored timeline, which is the replay of all its events
- * (corrections included, wherever they fall), so no event is read here: the result is the same
+ * (corrections included, wherever they fall), so no event is read here (but for a record whose
+ * timeline is not stored yet, replayed from its events): the result is the same
  * as replaying the events as of the date (tests/shared/progress.test.ts checks that equivalence).
  */
 export async function gatherInputs(
@@ -99,16 +95,18 @@ export async function gatherInputs(
   for (const s of stepRows)
     stepCount.set(s.elementId, Math.max(stepCount.get(s.elementId) ?? 0, s.position + 1))
 
-  // The records, a batch of athletes at a time: at most two batches' rows are in memory (the one
-  // worked through and the next on its way), so a large club's rows never sit there all at once,
-  // and between batches this process is free for other work. Each athlete's rows come in the order
+  // The records, a batch of athletes at a time: each batch's rows are done with before the next
+  // is read, so a large club's rows never sit in memory all at once, and between batches the
+  // database and this process are free for other work. Each athlete's rows come in the order
   // the table holds them, as from one query over the club.
   const records: AuditRecord[] = []
   const paces: Record<string, number> = {}
   const window = paceWindow(asOf)
   const ids = roster.map((a) => a.id).sort()
-  const readBatch = (from: number) =>
-    db
+  for (let from = 0; from < ids.length; from += athletesPerBatch) {
+    // One batch after another: inside the snapshot's transaction its one connection runs one
+    // query at a time anyway, so asking for the next batch early would only queue it.
+    const recordRows = await db
       .select({
         athleteId: progressRecords.athleteId,
         elementId: progressRecords.elementId,
@@ -121,32 +119,20 @@ export async function gatherInputs(
           inArray(progressRecords.athleteId, ids.slice(from, from + athletesPerBatch)),
         ),
       )
-      .execute()
-  const add = (athleteId: string, elementId: string, timeline: readonly TimelinePoint[]) => {
-    const reached = stepsAsOf(timeline, asOf)
-    if (reached === null) return
-    records.push({ athleteId, elementId, stepIndex: reached[2] })
-    paces[athleteId] = (paces[athleteId] ?? 0) + timelinePace(timeline, window)
-  }
-  // Records whose timeline is not stored yet (before its backfill): replayed at the end, when no
-  // read is under way on the connection.
-  const unstored: { athleteId: string; elementId: string }[] = []
-  let next = ids.length > 0 ? readBatch(0) : null
-  for (let from = 0; next; from += athletesPerBatch) {
-    const recordRows = await next
-    // The next batch is asked for once this one has come, so that the database reads it while
-    // this process works through these rows; one query at a time on the connection.
-    next = from + athletesPerBatch < ids.length ? readBatch(from + athletesPerBatch) : null
-    // Should working through this batch fail, the next one's failure is not the news.
-    next?.catch(() => undefined)
     for (const row of recordRows) {
-      if (row.timeline) add(row.athleteId, row.elementId, row.timeline)
-      else unstored.push(row)
+      const timeline =
+        row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))
+      const reached = stepsAsOf(timeline, asOf)
+      if (reached === null) continue
+      records.push({
+        athleteId: row.athleteId,
+        elementId: row.elementId,
+        stepIndex: reached[2],
+      })
+      paces[row.athleteId] = (paces[row.athleteId] ?? 0) + timelinePace(timeline, window)
     }
     await yieldToOthers()
   }
-  for (const { athleteId, elementId } of unstored)
-    add(athleteId, elementId, await replayedTimeline(db, clubId, athleteId, elementId))
   return {
     asOf,
     elements: catalogue.map((e) => ({

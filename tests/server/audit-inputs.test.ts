@@ -154,7 +154,7 @@ describe('the audit’s inputs as of a date', () => {
       level: 'junior',
       discipline: 'artistic-women',
     })
-    // 205 athletes read 50 at a time: five reads, more than the three asked for at once. Athlete
+    // 205 athletes read 50 at a time: five reads, one after another. Athlete
     // i reached step i mod 3 on the back tuck on 10 January, and nothing before.
     const ids: string[] = []
     const history: HistoryEvent[] = []

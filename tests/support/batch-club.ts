@@ -26,17 +26,25 @@ export interface BatchClub {
 
 export async function openBatchClub(label: string): Promise<BatchClub> {
   const database = await freshDatabase()
-  const t = await testApp(database)
-  const fx = await clubWithPeople(database.db, label)
-  return {
-    database,
-    t,
-    fx,
-    director: await signedIn(t, fx.people.director.email),
-    coach: await signedIn(t, fx.people.coach.email),
-    clinician: await signedIn(t, fx.people.clinician.email),
-    base: `/api/clubs/${fx.club.id}`,
-    tucks: await floorTucks(database.db, fx.club.id),
+  let t: TestApp | undefined
+  try {
+    t = await testApp(database)
+    const fx = await clubWithPeople(database.db, label)
+    return {
+      database,
+      t,
+      fx,
+      director: await signedIn(t, fx.people.director.email),
+      coach: await signedIn(t, fx.people.coach.email),
+      clinician: await signedIn(t, fx.people.clinician.email),
+      base: `/api/clubs/${fx.club.id}`,
+      tucks: await floorTucks(database.db, fx.club.id),
+    }
+  } catch (err) {
+    // What was opened is closed, so that the failure shown is this one alone.
+    await t?.close()
+    await database.close()
+    throw err
   }
 }
 
