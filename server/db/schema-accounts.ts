@@ -15,6 +15,7 @@ import {
   varchar,
 } from 'drizzle-orm/pg-core'
 import { roles } from '../../shared/domain/club.ts'
+import { createdAt } from './schema-columns.ts'
 
 // Every table of club data carries club_id and puts it first in its keys and foreign keys, so
 // that rows of one club can never point at another club's rows, and so that the club tables can
@@ -27,8 +28,6 @@ import { roles } from '../../shared/domain/club.ts'
 // without knowing the club.
 
 export const roleEnum = pgEnum('role', roles)
-
-const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
 export const clubs = pgTable('clubs', {
   id: uuid().primaryKey().defaultRandom(),

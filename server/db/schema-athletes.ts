@@ -22,6 +22,7 @@ import {
 } from '../../shared/domain/progress.ts'
 import { clubs, memberships, users } from './schema-accounts.ts'
 import { elements } from './schema-catalogue.ts'
+import { createdAt } from './schema-columns.ts'
 
 // The squads and their coaches, the athletes, and the athletes' progress on the catalogue's
 // elements. Club data, keyed by club_id first (see schema-accounts.ts).
@@ -30,8 +31,6 @@ export const disciplineEnum = pgEnum('discipline', disciplines)
 export const squadLevelEnum = pgEnum('squad_level', squadLevels)
 export const progressEventKindEnum = pgEnum('progress_event_kind', progressEventKinds)
 export const pauseReasonEnum = pgEnum('pause_reason', pauseReasons)
-
-const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
 export const squads = pgTable(
   'squads',

@@ -19,12 +19,11 @@ import type { AuditRun } from '../../shared/schemas/audits.ts'
 import type { StoredAuditResult } from '../services/audit-storage.ts'
 import { clubs, roleEnum, users } from './schema-accounts.ts'
 import { disciplineEnum, squads } from './schema-athletes.ts'
+import { createdAt } from './schema-columns.ts'
 
 // Audits, the requirements they measure against, and what workers build for a poll to follow:
 // audit runs, PDF reports and club archives. Club data, keyed by club_id first (see
 // schema-accounts.ts).
-
-const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
 /**
  * A stored audit: the result of shared/domain/audit/run.ts over the club's data as of a date,

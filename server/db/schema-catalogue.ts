@@ -8,7 +8,6 @@ import {
   pgTable,
   primaryKey,
   text,
-  timestamp,
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
@@ -21,6 +20,7 @@ import {
   twistBands,
 } from '../../shared/domain/element.ts'
 import { clubs, users } from './schema-accounts.ts'
+import { createdAt } from './schema-columns.ts'
 
 // The club's catalogue of elements, their progressions and the templates new progressions start
 // from. Club data, keyed by club_id first (see schema-accounts.ts).
@@ -31,8 +31,6 @@ export const takeOffEnum = pgEnum('take_off', takeOffs)
 export const rotationClassEnum = pgEnum('rotation_class', rotationClasses)
 export const twistBandEnum = pgEnum('twist_band', twistBands)
 export const modalityEnum = pgEnum('modality', modalities)
-
-const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
 /**
  * The club's catalogue. Description columns are what the director types; rotation class, twist

@@ -17,11 +17,10 @@ import type { PlanOutcome } from '../../shared/schemas/planner.ts'
 import { clubs, users } from './schema-accounts.ts'
 import { squads } from './schema-athletes.ts'
 import { modalityEnum } from './schema-catalogue.ts'
+import { createdAt } from './schema-columns.ts'
 
 // The session planner: the club's stations and its saved plans. Club data, keyed by club_id
 // first like every other club table (see schema-accounts.ts).
-
-const createdAt = () => timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow()
 
 /** A station of the club's gym, saved once and chosen for each plan. */
 export const plannerStations = pgTable(

@@ -15,11 +15,10 @@ import { recommendationPriorities, recommendationStatuses } from '../../shared/d
 import { clubs, invitations, users } from './schema-accounts.ts'
 import { athletes, squads } from './schema-athletes.ts'
 import { elements } from './schema-catalogue.ts'
+import { createdAt } from './schema-columns.ts'
 
 // Clinician visits and their recommendations: club data, keyed by club_id first like every
 // other club table (see schema-accounts.ts).
-
-const createdAt = () => timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow()
 
 export const recommendationPriorityEnum = pgEnum(
   'recommendation_priority',
