@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import type { BatchPreview, BatchRow } from '@shared/schemas/progress-batch'
 import type { OutboxEntry } from '@/offline/outbox-db'
 import { batchOutboxEntry, rowAt, rowRecord, shownRows, type ShownRow } from '@/offline/batchRows'
+import { athletes, batchSteps, row as batchRow } from './batch-helpers'
 import { clubId, elementId, eventIds, steps } from './progress-helpers'
 
 // The squad logging list as the tablet shows it with entries kept on it. The progression is the
@@ -9,30 +10,16 @@ import { clubId, elementId, eventIds, steps } from './progress-helpers'
 // is worked out by hand from the replay rules of the product brief (a step moves the step and
 // its date, raises the highest step, keeps a pause and drops its planned step).
 
-const batchSteps = steps.map((s, index) => ({ index, name: s.name, criterion: s.criterion }))
-const athlete = '66666666-6666-4666-8666-666666666601'
-const other = '66666666-6666-4666-8666-666666666602'
+const [athlete, other] = athletes as [string, string]
 const tabletIds = ['77777777-7777-4777-8777-777777777701', '77777777-7777-4777-8777-777777777702']
 
-const row = (partial: Partial<BatchRow> = {}): BatchRow => ({
-  athleteId: athlete,
-  givenName: 'Ada',
-  familyName: 'Quill',
-  elementId,
-  stepIndex: 0,
-  highestStepIndex: 0,
-  stepReachedOn: '2026-11-01',
-  paused: false,
-  pauseReason: null,
-  plannedStepIndex: null,
-  lastEventOn: '2026-11-01',
-  lastEventId: eventIds[0]!,
-  flagged: false,
-  nextStep: { index: 1, name: steps[1]!.name, criterion: steps[1]!.criterion },
-  checks: [{ code: 'min-days', severity: 'warning', message: 'Step 1 is held at least 7 days.' }],
-  entryIndex: null,
-  ...partial,
-})
+// The helpers' athlete 0, named Ada Quill, with a warning the server worked out for its state.
+const row = (partial: Partial<BatchRow> = {}): BatchRow =>
+  batchRow(0, {
+    givenName: 'Ada',
+    checks: [{ code: 'min-days', severity: 'warning', message: 'Step 1 is held at least 7 days.' }],
+    ...partial,
+  })
 const shown = (r: BatchRow): ShownRow => ({ ...r, kept: false })
 const given = (n: number, occurredOn = '2026-11-04') => ({
   clubId,
