@@ -11,6 +11,7 @@ import {
   appEnvironment,
   p99,
   paced,
+  percentile,
   sessionCookie,
   startServer,
   startWorker,
@@ -130,9 +131,8 @@ export default async function isolationBench() {
         `  control, a busy loop at niceness 19 instead of the audits: p99 ${controlMs99.toFixed(1)} ms against ${controlIdleMs99.toFixed(1)} ms idle, ${(controlMs99 / controlIdleMs99).toFixed(2)}×`,
       )
       const spread = (w: Window[]) => {
-        const ms = within(checks, w).sort((a, b) => a - b)
-        const at = (q: number) => ms[Math.min(ms.length - 1, Math.floor(q * ms.length))]!
-        return `p50 ${at(0.5).toFixed(1)}, p90 ${at(0.9).toFixed(1)}, p99 ${at(0.99).toFixed(1)}, worst ${at(1).toFixed(1)} ms`
+        const at = (q: number) => percentile(within(checks, w), q).toFixed(1)
+        return `p50 ${at(0.5)}, p90 ${at(0.9)}, p99 ${at(0.99)}, worst ${at(1)} ms`
       }
       console.log(`  audits: ${spread(busy)}; idle: ${spread(idle)}`)
     } finally {

@@ -244,11 +244,14 @@ export function paced(url: string, perSecond: number): Paced {
   }
 }
 
-/** The 99th percentile of `samples`. */
-export function p99(samples: number[]) {
+/** The `q` quantile of `samples` (nearest rank; 1 is the largest). */
+export function percentile(samples: number[], q: number) {
   const sorted = [...samples].sort((a, b) => a - b)
-  return sorted[Math.min(sorted.length - 1, Math.floor(0.99 * sorted.length))]!
+  return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]!
 }
+
+/** The 99th percentile of `samples`. */
+export const p99 = (samples: number[]) => percentile(samples, 0.99)
 
 /** A stretch of a benchmark run, in performance.now() milliseconds. */
 export interface Window {
