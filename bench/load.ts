@@ -268,13 +268,24 @@ export const within = (checks: Paced, windows: Window[]) =>
 /**
  * Starts a worker process (`server/worker.ts`), as production runs it apart from the web
  * processes, and resolves once it has started; `stop()` sends SIGTERM and waits for it to exit.
+ * Should this process end first, the worker is told to stop too.
  */
 export async function startWorker(env: Record<string, string>, publicUrl: string) {
   const worker = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
     env: { PATH: process.env.PATH ?? '', PUBLIC_URL: publicUrl, ...env },
     stdio: ['ignore', 'pipe', 'inherit'],
+    // In a session of its own, as a process manager starts it, so that it can lower its
+    // autogroup (server/jobs/priority.ts).
+    detached: true,
   })
-  const exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()))
+  const orphaned = () => worker.kill('SIGTERM')
+  process.once('exit', orphaned)
+  const exited = new Promise<void>((resolve) =>
+    worker.once('exit', () => {
+      process.off('exit', orphaned)
+      resolve()
+    }),
+  )
   await new Promise<void>((resolve, reject) => {
     worker.once('exit', (code) => reject(new Error(`the worker exited (${code})`)))
     worker.stdout.on('data', (chunk: Buffer) => {

@@ -1,7 +1,7 @@
 import { pathToFileURL } from 'node:url'
 import { createDatabase } from './db/client.ts'
 import { EnvError, jobSettingsOf, parseEnv } from './env.ts'
-import { lowerProcessPriority } from './jobs/priority.ts'
+import { lowerAutogroupPriority, lowerProcessPriority } from './jobs/priority.ts'
 import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { createMailer } from './mail/mailer.ts'
@@ -20,8 +20,14 @@ export async function runWorker() {
   // moment, a person at a tablet should not. Raising one's own niceness needs no privilege; a
   // system that refuses leaves the worker at normal priority.
   lowerProcessPriority(workerNiceness)
+  const autogroup = lowerAutogroupPriority(workerNiceness)
   if (!env.DATABASE_URL) throw new EnvError('Invalid environment:\n  DATABASE_URL: required')
   const logger = createLogger(env)
+  if (autogroup === 'shared') {
+    logger.warn(
+      'this worker shares its session, hence its CPU share, with other processes: start it in a session of its own (setsid) so that web processes and the database go first',
+    )
+  }
   const database = createDatabase(env.DATABASE_URL, logger)
   const mailer = await createMailer(env, logger)
   const worker = await startJobWorker({

@@ -43,7 +43,9 @@ try {
   // The demo: local database and local fake mail, never production mode.
   const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'development' })
   // Audits and mail are done by a worker process of their own, as in production, sending mail
-  // through the local fake mail server of the web process.
+  // through the local fake mail server of the web process. In a session of its own, it lowers
+  // its CPU share against this process and PostgreSQL (server/jobs/priority.ts); Ctrl-C reaches
+  // this process alone, which stops the worker (below, or as it exits).
   const worker = spawn(
     process.execPath,
     ['--import', 'tsx', join(projectDir, 'server/worker.ts')],
@@ -57,8 +59,12 @@ try {
         ...(serving.fakeSmtpUrl ? { SMTP_URL: serving.fakeSmtpUrl } : {}),
         ...(fakeS3?.vars ?? {}),
       },
+      detached: true,
     },
   )
+  process.once('exit', () => {
+    if (worker.exitCode === null) worker.kill('SIGTERM')
+  })
   console.log(`\nTwofold is running at ${serving.url}  (Ctrl-C stops it)`)
   if (serving.mailViewerUrl) {
     console.log(

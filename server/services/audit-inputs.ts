@@ -68,6 +68,11 @@ export async function gatherInputs(
   asOf: string,
   { athletesPerBatch = defaultAthletesPerBatch }: { athletesPerBatch?: number } = {},
 ): Promise<AuditInputs> {
+  if (!Number.isInteger(athletesPerBatch) || athletesPerBatch < 1) {
+    throw new RangeError(
+      `athletesPerBatch must be a whole number of at least 1: ${athletesPerBatch}`,
+    )
+  }
   const inRoster = and(
     eq(athletes.clubId, clubId),
     isNull(athletes.archivedAt),

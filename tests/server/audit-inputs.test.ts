@@ -205,5 +205,11 @@ describe('the audit’s inputs as of a date', () => {
     // The input hash does not depend on the order the batches brought the records in.
     const reordered = { ...inputs, records: [...inputs.records].reverse() }
     expect(await auditInputHash(inputs)).toBe(await auditInputHash(reordered))
+    // A batch of no athletes would never end: refused before any read.
+    for (const athletesPerBatch of [0, -1, 2.5, Number.NaN]) {
+      await expect(
+        gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30', { athletesPerBatch }),
+      ).rejects.toThrow(/athletesPerBatch/)
+    }
   }, 60_000)
 })

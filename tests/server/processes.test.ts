@@ -1,11 +1,12 @@
 import { spawn, type ChildProcess } from 'node:child_process'
-import { readdirSync, readFileSync } from 'node:fs'
+import { existsSync, readdirSync, readFileSync } from 'node:fs'
 import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { freePort } from '../../server/cli/postgres.ts'
 import type { Database } from '../../server/db/client.ts'
 import { clubs, mailOutbox } from '../../server/db/schema-accounts.ts'
 import { auditRuns, audits } from '../../server/db/schema-audits.ts'
+import { lowerAutogroupPriority } from '../../server/jobs/priority.ts'
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.ts'
 import { demoPassword, demoPeople, seedDemo } from '../../seed/demo.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -38,6 +39,8 @@ function start(entry: 'server/index.ts' | 'server/worker.ts', env: Record<string
   const child = spawn(process.execPath, ['--import', 'tsx', entry], {
     env,
     stdio: ['ignore', 'ignore', 'inherit'],
+    // A worker in a session of its own, as a process manager starts one (see below).
+    detached: entry === 'server/worker.ts',
   })
   children.push(child)
   return child
@@ -145,6 +148,30 @@ describe('two web processes and workers over one database', () => {
       expect(threads.map(niceness)).toEqual(threads.map(() => 10))
     },
   )
+
+  // sched(7), "The autogroup feature": where the kernel groups processes by session, the CPU is
+  // shared between the groups first and a niceness ranks threads inside one group only; the
+  // group's own niceness is read and set through /proc/<pid>/autogroup ("/autogroup-N nice K").
+  // A worker in a session of its own must lower its group too, or its busy core counts as much
+  // as PostgreSQL's serving the web processes.
+  const autogroups =
+    process.platform === 'linux' &&
+    existsSync('/proc/sys/kernel/sched_autogroup_enabled') &&
+    readFileSync('/proc/sys/kernel/sched_autogroup_enabled', 'utf8').trim() === '1'
+  const runnerGroup = autogroups ? readFileSync('/proc/self/autogroup', 'utf8') : ''
+  it.runIf(autogroups)('lowers the autogroup of a worker in a session of its own', async () => {
+    await expect
+      .poll(() => readFileSync(`/proc/${worker.pid}/autogroup`, 'utf8'), { timeout: 20_000 })
+      .toMatch(/ nice 10$/m)
+    // The test runner's own group, which the web processes share, is left as it was.
+    expect(readFileSync('/proc/self/autogroup', 'utf8')).toBe(runnerGroup)
+  })
+
+  it.runIf(autogroups)('leaves alone an autogroup that other processes share', () => {
+    // This test runner shares its session with the web processes it started (and its shell's).
+    expect(lowerAutogroupPriority(10)).toBe('shared')
+    expect(readFileSync('/proc/self/autogroup', 'utf8')).toBe(runnerGroup)
+  })
 
   it('holds the sign-in limits across both processes', async () => {
     const victim = demoPeople.find((p) => p.role === 'board')!.email
