@@ -1,23 +1,13 @@
 import { expect, test } from '@playwright/test'
 import { screenshot } from './support.ts'
-import { signIn } from './support-auth.ts'
+import { signedInTablet, signIn } from './support-auth.ts'
 
 test('a tablet logs 5 entries offline, survives a reload, and the server gets exactly 5 events', async ({
   browser,
 }) => {
   test.setTimeout(120_000)
-  const context = await browser.newContext({
-    viewport: { width: 820, height: 1180 },
-    hasTouch: true,
-  })
-  const page = await context.newPage()
-  await signIn(page, 'coach@demo.example')
   // The service worker is installed and in control before the tablet loses its network.
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true))
-  await page.reload()
-  await expect
-    .poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null))
-    .toBe(true)
+  const { context, page } = await signedInTablet(browser, 'coach@demo.example')
 
   await page.goto('/squads')
   await page.getByRole('link', { name: 'Kites' }).first().click()

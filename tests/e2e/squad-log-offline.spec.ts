@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test'
 import type { BatchPreview } from '../../shared/schemas/progress-batch.ts'
 import { screenshot } from './support.ts'
-import { signIn } from './support-auth.ts'
+import { signedInTablet } from './support-auth.ts'
 
 // A coach opens a squad's logging list once online; the tablet then loses its network, reloads,
 // still shows the list (kept by the service worker), logs 3 athletes' next steps there, and the
@@ -16,17 +16,8 @@ test('a coach logs 3 athletes of a squad offline from a list opened online, and 
   browser,
 }) => {
   test.setTimeout(120_000)
-  const context = await browser.newContext({
-    viewport: { width: 820, height: 1180 },
-    hasTouch: true,
-  })
-  const page = await context.newPage()
-  await signIn(page, 'coach@demo.example')
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true))
-  await page.reload()
-  await expect
-    .poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null))
-    .toBe(true)
+  // The service worker is installed and in control before the tablet loses its network.
+  const { context, page } = await signedInTablet(browser, 'coach@demo.example')
 
   const api = async <T>(path: string) => {
     const res = await page.request.get(path)

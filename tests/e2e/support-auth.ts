@@ -1,4 +1,4 @@
-import { expect, type Page } from '@playwright/test'
+import { expect, type Browser, type Page } from '@playwright/test'
 
 export const demoPassword = 'twofold-demo-2026'
 
@@ -19,3 +19,22 @@ export async function signOut(page: Page) {
 }
 
 export const mainNav = (page: Page) => page.getByRole('navigation', { name: 'Main' }).first()
+
+/**
+ * A tablet (portrait, touch) signed in as `email`, whose service worker is installed and in
+ * control, so that the app keeps working once the tablet loses its network.
+ */
+export async function signedInTablet(browser: Browser, email: string) {
+  const context = await browser.newContext({
+    viewport: { width: 820, height: 1180 },
+    hasTouch: true,
+  })
+  const page = await context.newPage()
+  await signIn(page, email)
+  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true))
+  await page.reload()
+  await expect
+    .poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null))
+    .toBe(true)
+  return { context, page }
+}
