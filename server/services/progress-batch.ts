@@ -210,7 +210,12 @@ export async function previewBatch(
       name: e.name,
       direction: e.direction,
       stepCount: e.steps.length,
-      steps: e.steps.map((step, index) => ({ index, name: step.name, criterion: step.criterion })),
+      steps: e.steps.map((step, index) => ({
+        index,
+        name: step.name,
+        criterion: step.criterion,
+        minDays: step.minDays,
+      })),
     })),
     rows,
   }

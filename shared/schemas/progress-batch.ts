@@ -110,8 +110,19 @@ export const batchPreviewSchema = z.object({
       name: z.string(),
       direction: z.enum(['forward', 'backward', 'sideward']),
       stepCount: z.number(),
-      /** Every step with its pass criterion: the tablet names the next step after a kept entry. */
-      steps: z.array(z.object({ index: z.number(), name: z.string(), criterion: z.string() })),
+      /**
+       * Every step with its pass criterion and least days (null: none): the tablet names the next
+       * step after a kept entry and works out its checks. A list kept before the least days were
+       * sent has none.
+       */
+      steps: z.array(
+        z.object({
+          index: z.number(),
+          name: z.string(),
+          criterion: z.string(),
+          minDays: z.number().nullable().optional(),
+        }),
+      ),
     }),
   ),
   rows: z.array(batchRowSchema),

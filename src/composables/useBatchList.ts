@@ -61,7 +61,7 @@ export function useBatchList(source: () => BatchListSource) {
 
   // latestFor reads the outbox's entries: the list follows every change of them.
   const rows = computed<ShownRow[]>(() =>
-    preview.value ? shownRows(preview.value, outbox.latestFor) : [],
+    preview.value ? shownRows(preview.value, outbox.latestFor, occurredOn.value) : [],
   )
   const sections = computed(() =>
     (preview.value?.elements ?? []).map((element) => ({
@@ -80,7 +80,7 @@ export function useBatchList(source: () => BatchListSource) {
       ...list,
       rows: list.rows.map((row) =>
         row.athleteId === record.athleteId && row.elementId === record.elementId
-          ? rowAt(row, element.steps, record)
+          ? rowAt(row, element.steps, record, occurredOn.value)
           : row,
       ),
     }

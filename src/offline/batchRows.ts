@@ -1,3 +1,4 @@
+import { checkEvent, type CheckResult } from '@shared/domain/progress'
 import type { BatchPreview, BatchRow } from '@shared/schemas/progress-batch'
 import type { ProgressEventInput, RecordView } from '@shared/schemas/progress'
 import type { OutboxEntry } from './outbox-db'
@@ -29,31 +30,67 @@ export function rowRecord(row: BatchRow): RecordView {
 }
 
 /**
- * The row once its record stands at `record`: the step after the record's (the first when it
- * has none) becomes the next step, none at the top. The server's checks were worked out for
- * the former state, so they are dropped: the server runs them again when the entry is sent.
+ * The checks passing `next` on `occurredOn` will run, as far as the tablet can tell: those of
+ * the step (the same rules the server runs, shared/domain/progress.ts), and the server's
+ * prerequisite warnings for the row, which are about the element, not the step, and stand until
+ * the list is read again. The server runs them all again when the entry is sent.
  */
-export function rowAt(row: BatchRow, steps: BatchStep[], record: RecordView): BatchRow {
+function checksAt(
+  row: BatchRow,
+  steps: BatchStep[],
+  record: RecordView,
+  next: BatchStep,
+  occurredOn: string,
+): CheckResult[] {
+  const ofStep = checkEvent(
+    { stepIndex: record.stepIndex },
+    { kind: 'step', stepIndex: next.index, occurredOn },
+    {
+      steps: steps.map((s) => ({
+        name: s.name,
+        ...(s.minDays == null ? {} : { minDays: s.minDays }),
+      })),
+      reachedCurrentStepOn: record.stepReachedOn,
+    },
+  )
+  return [...ofStep, ...row.checks.filter((c) => c.code === 'prerequisite')]
+}
+
+/**
+ * The row once its record stands at `record`: the step after the record's (the first when it
+ * has none) becomes the next step, none at the top, with the checks passing it on `occurredOn`
+ * will run (none without a day).
+ */
+export function rowAt(
+  row: BatchRow,
+  steps: BatchStep[],
+  record: RecordView,
+  occurredOn?: string,
+): BatchRow {
   const next = steps[(record.stepIndex ?? -1) + 1]
   const { athleteId: _a, elementId: _e, ...state } = record
   return {
     ...row,
     ...state,
     nextStep: next ? { index: next.index, name: next.name, criterion: next.criterion } : null,
-    checks: [],
+    checks: next && occurredOn ? checksAt(row, steps, record, next, occurredOn) : [],
   }
 }
 
-/** Every row as the tablet shows it, given the newest kept entry on each record. */
+/**
+ * Every row as the tablet shows it, given the newest kept entry on each record, with the checks
+ * of passing the next step on `occurredOn`.
+ */
 export function shownRows(
   preview: BatchPreview,
   latestFor: (athleteId: string, elementId: string) => OutboxEntry | undefined,
+  occurredOn: string,
 ): ShownRow[] {
   const steps = new Map(preview.elements.map((e) => [e.id, e.steps]))
   return preview.rows.map((row) => {
     const kept = latestFor(row.athleteId, row.elementId)
     return kept
-      ? { ...rowAt(row, steps.get(row.elementId) ?? [], kept.predicted), kept: true }
+      ? { ...rowAt(row, steps.get(row.elementId) ?? [], kept.predicted, occurredOn), kept: true }
       : { ...row, kept: false }
   })
 }

@@ -12,7 +12,12 @@ export const athletes = [
   '66666666-6666-4666-8666-666666666602',
   '66666666-6666-4666-8666-666666666603',
 ]
-export const batchSteps = steps.map((s, index) => ({ index, name: s.name, criterion: s.criterion }))
+export const batchSteps = steps.map((s, index) => ({
+  index,
+  name: s.name,
+  criterion: s.criterion,
+  minDays: s.minDays,
+}))
 
 /** Athlete `i` at the first step since 1 November, next the second. */
 export const row = (i: number, partial: Partial<BatchRow> = {}): BatchRow => ({

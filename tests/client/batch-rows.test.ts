@@ -110,15 +110,19 @@ describe('shownRows', () => {
 
   it('leaves a row with nothing kept as the server sent it', () => {
     const list = preview([row()])
-    expect(shownRows(list, () => undefined)).toEqual([{ ...row(), kept: false }])
+    expect(shownRows(list, () => undefined, '2026-11-04')).toEqual([{ ...row(), kept: false }])
   })
 
   it('moves a row to the state its kept entry gives, naming the step after it', () => {
     const first = kept(batchOutboxEntry(shown(row()), given(0)), 1)
-    const [moved, untouched] = shownRows(preview([row(), row({ athleteId: other })]), (a, e) =>
-      a === athlete && e === elementId ? first : undefined,
+    const [moved, untouched] = shownRows(
+      preview([row(), row({ athleteId: other })]),
+      (a, e) => (a === athlete && e === elementId ? first : undefined),
+      '2026-11-04',
     )
-    // Now on step 2 (index 1): step 3, "Hand spot by a coach", is next; the checks were for step 2.
+    // Now on step 2 (index 1): step 3, "Hand spot by a coach", is next. The server's check was
+    // for step 2 and goes; passing step 3 the same day is worked out here: step 2 is held at
+    // least 7 days (the helpers' progression) and was reached today, 0 days ago.
     expect(moved).toMatchObject({
       stepIndex: 1,
       highestStepIndex: 1,
@@ -129,7 +133,14 @@ describe('shownRows', () => {
         name: 'Hand spot by a coach',
         criterion: 'Three in a row with a light spot',
       },
-      checks: [],
+      checks: [
+        {
+          code: 'min-days',
+          severity: 'warning',
+          message:
+            'Step 2 (Rotation in the spotting rig) is passed after 0 days; its minimum is 7 days.',
+        },
+      ],
       kept: true,
     })
     expect(untouched).toMatchObject({ athleteId: other, stepIndex: 0, kept: false })
@@ -138,7 +149,7 @@ describe('shownRows', () => {
     // A second entry on the same record expects the first's tablet id and moves one further.
     const second = batchOutboxEntry(moved!, given(1, '2026-11-05'))
     expect(second.input).toMatchObject({ stepIndex: 2, expectedLastEventId: tabletIds[0] })
-    const [again] = shownRows(preview([row()]), () => kept(second, 2))
+    const [again] = shownRows(preview([row()]), () => kept(second, 2), '2026-11-05')
     expect(again).toMatchObject({
       stepIndex: 2,
       highestStepIndex: 2,
@@ -159,7 +170,7 @@ describe('shownRows', () => {
       nextStep: { index: 4, name: steps[4]!.name, criterion: steps[4]!.criterion },
     })
     const entry = kept(batchOutboxEntry(shown(paused), given(0)), 1)
-    const [moved] = shownRows(preview([paused]), () => entry)
+    const [moved] = shownRows(preview([paused]), () => entry, '2026-11-04')
     expect(moved).toMatchObject({
       stepIndex: 4,
       highestStepIndex: 4,
@@ -177,8 +188,54 @@ describe('shownRows', () => {
       nextStep: { index: 5, name: steps[5]!.name, criterion: steps[5]!.criterion },
     })
     const entry = kept(batchOutboxEntry(shown(nearTop), given(0)), 1)
-    const [top] = shownRows(preview([nearTop]), () => entry)
+    const [top] = shownRows(preview([nearTop]), () => entry, '2026-11-04')
     expect(top).toMatchObject({ stepIndex: 5, nextStep: null, kept: true })
+  })
+})
+
+describe('the checks of a row an entry kept on the tablet decides', () => {
+  const list = (rows: BatchRow[]): BatchPreview => ({
+    squad: { id: '55555555-5555-4555-8555-555555555555', name: 'Kites' },
+    elements: [
+      { id: elementId, name: 'Back tuck', direction: 'backward', stepCount: 6, steps: batchSteps },
+    ],
+    rows,
+  })
+  const prerequisite = {
+    code: 'prerequisite' as const,
+    severity: 'warning' as const,
+    message: 'Prerequisite not met: Back walkover should be at step 3 or higher (now at step 1).',
+  }
+
+  it('warns of an early pass only before the step has been held its least days', () => {
+    // Step 2 (held at least 7 days) reached on 4 November by the kept entry: passing step 3 on
+    // 10 November is 6 days on, early; on 11 November, 7 days on, it is not.
+    const entry = kept(batchOutboxEntry(shown(row()), given(0)), 1)
+    const [early] = shownRows(list([row()]), () => entry, '2026-11-10')
+    expect(early!.checks).toEqual([
+      {
+        code: 'min-days',
+        severity: 'warning',
+        message:
+          'Step 2 (Rotation in the spotting rig) is passed after 6 days; its minimum is 7 days.',
+      },
+    ])
+    const [onTime] = shownRows(list([row()]), () => entry, '2026-11-11')
+    expect(onTime!.checks).toEqual([])
+  })
+
+  it('keeps the server’s prerequisite warning, which is about the element, not the step', () => {
+    const withPrerequisite = row({ checks: [prerequisite] })
+    const entry = kept(batchOutboxEntry(shown(withPrerequisite), given(0)), 1)
+    const [moved] = shownRows(list([withPrerequisite]), () => entry, '2026-11-20')
+    expect(moved!.checks).toEqual([prerequisite])
+  })
+
+  it('names no least days for a list kept before they were sent with it', () => {
+    const older = list([row()])
+    older.elements[0]!.steps = batchSteps.map(({ minDays: _m, ...step }) => step)
+    const entry = kept(batchOutboxEntry(shown(row()), given(0)), 1)
+    expect(shownRows(older, () => entry, '2026-11-04')[0]!.checks).toEqual([])
   })
 })
 

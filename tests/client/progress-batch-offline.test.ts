@@ -105,7 +105,9 @@ describe('ProgressBatchPanel offline', () => {
     const outbox = useOutboxStore()
     outbox.online = false
     await settle()
-    expect(byTest('batch-offline')[0]!.textContent).toContain('checks run when they are sent')
+    expect(byTest('batch-offline')[0]!.textContent).toContain(
+      'all of them run again when the entries are sent',
+    )
 
     checkbox(wrapper, 0).vm.$emit('update:checked', true)
     await settle()
@@ -131,6 +133,11 @@ describe('ProgressBatchPanel offline', () => {
     expect(rows[0]).toContain('now 2/6')
     expect(rows[0]).toContain('Next: step 3 · Hand spot by a coach')
     expect(rows[0]).toContain('entry kept on this tablet')
+    // Step 2 is held at least 7 days (the helpers' progression) and was reached today: passing
+    // step 3 today would be early, which the tablet says before anything is sent.
+    expect(rows[0]).toContain(
+      'Step 2 (Rotation in the spotting rig) is passed after 0 days; its minimum is 7 days.',
+    )
     expect(rows[1]).not.toContain('kept')
     expect(rows[2]).toContain('Next: step 2 · Rotation in the spotting rig')
     expect(save().textContent).toContain('Save 0 entries')

@@ -77,11 +77,15 @@ describe('the squad logging list (GET)', () => {
 
     expect(got.elements).toHaveLength(1)
     expect(got.elements[0]!.steps).toEqual(
-      element.steps.map((s: { name: string; criterion: string }, index: number) => ({
-        index,
-        name: s.name,
-        criterion: s.criterion,
-      })),
+      element.steps.map(
+        (s: { name: string; criterion: string; minDays: number | null }, index: number) => ({
+          index,
+          name: s.name,
+          criterion: s.criterion,
+          // The least days too, for the tablet to work out the checks after an entry kept there.
+          minDays: s.minDays,
+        }),
+      ),
     )
     expect(got.elements[0]!.steps).toHaveLength(got.elements[0]!.stepCount)
     expect(got.rows[0]).toMatchObject({
