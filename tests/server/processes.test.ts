@@ -6,7 +6,6 @@ import { freePort } from '../../server/cli/postgres.ts'
 import type { Database } from '../../server/db/client.ts'
 import { clubs, mailOutbox } from '../../server/db/schema-accounts.ts'
 import { auditRuns, audits } from '../../server/db/schema-audits.ts'
-import { lowerAutogroupPriority } from '../../server/jobs/priority.ts'
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.ts'
 import { demoPassword, demoPeople, seedDemo } from '../../seed/demo.ts'
 import { freshDatabase } from '../support/database.ts'
@@ -167,11 +166,36 @@ describe('two web processes and workers over one database', () => {
     expect(readFileSync('/proc/self/autogroup', 'utf8')).toBe(runnerGroup)
   })
 
-  it.runIf(autogroups)('leaves alone an autogroup that other processes share', () => {
-    // This test runner shares its session with the web processes it started (and its shell's).
-    expect(lowerAutogroupPriority(10)).toBe('shared')
-    expect(readFileSync('/proc/self/autogroup', 'utf8')).toBe(runnerGroup)
-  })
+  it.runIf(autogroups)(
+    'leaves alone an autogroup that other processes share',
+    async () => {
+      // A session of its own whose first process starts a sibling that waits, then a process that
+      // tries to lower the session's group: it must leave it, since the sibling is in it too.
+      const trying = `import('./server/jobs/priority.ts').then((m) => console.log(m.lowerAutogroupPriority(10)))`
+      const session = `
+      const { spawn, execFileSync } = require('node:child_process')
+      const sibling = spawn(process.execPath, ['-e', 'setTimeout(() => {}, 30000)'], { stdio: 'ignore' })
+      const outcome = execFileSync(process.execPath, ['--import', 'tsx', '-e', ${JSON.stringify(trying)}])
+      const group = require('node:fs').readFileSync('/proc/self/autogroup', 'utf8')
+      sibling.kill()
+      console.log(JSON.stringify({ outcome: outcome.toString().trim(), group: group.trim() }))
+    `
+      const child = spawn(process.execPath, ['-e', session], {
+        detached: true,
+        stdio: ['ignore', 'pipe', 'inherit'],
+      })
+      children.push(child)
+      let out = ''
+      child.stdout!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+      await new Promise((resolve) => child.once('exit', resolve))
+      const { outcome, group } = JSON.parse(out) as { outcome: string; group: string }
+      expect(outcome).toBe('shared')
+      expect(group).toMatch(/ nice 0$/)
+      // Nor does a test runner's own group change, whatever its session holds.
+      expect(readFileSync('/proc/self/autogroup', 'utf8')).toBe(runnerGroup)
+    },
+    30_000,
+  )
 
   it('holds the sign-in limits across both processes', async () => {
     const victim = demoPeople.find((p) => p.role === 'board')!.email
