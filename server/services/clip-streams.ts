@@ -6,6 +6,8 @@ import { Readable } from 'node:stream'
  */
 export function takeHead(stream: Readable, n: number): Promise<Buffer> {
   return new Promise((resolve, reject) => {
+    // Already read to its end (a JSON body the JSON parser took): no bytes will come, nor 'end'.
+    if (stream.readableEnded) return resolve(Buffer.alloc(0))
     const chunks: Buffer[] = []
     let got = 0
     const finish = () => {

@@ -136,6 +136,14 @@ describe('uploading a clip', () => {
     expect(await database.db.select().from(clips)).toHaveLength(before.length)
   })
 
+  it('refuses a JSON body, which holds no video, with 400 naming the file at once', async () => {
+    const res = await upload(coach, Buffer.from('{}'))
+      .set('Content-Type', 'application/json')
+      .timeout(5_000)
+    expect(res.status).toBe(400)
+    expect(res.body.error.issues).toEqual([{ path: 'file', message: expect.any(String) }])
+  })
+
   it('refuses a clip over the size limit with 413 naming the file', async () => {
     // CLIP_MAX_MB is 1 here: one byte over 10^6 is too big.
     const res = await upload(coach, Buffer.concat([webm, Buffer.alloc(1_000_001 - webm.length)]))
