@@ -25,6 +25,7 @@ import { boardSummary, getReport, listAudits, publish, recheck } from '../servic
 import type { ClubRoute } from './club-routes.ts'
 
 const idParams = z.object({ id: z.uuid('No such audit.') })
+const jobParams = z.object({ jobId: z.uuid('No such audit run.') })
 const readers = ['director', 'coach', 'clinician'] as const
 // A malformed id names no profile: it gets the 404 of any unknown one, not a 400.
 const profileId = (raw: unknown) => {
@@ -66,8 +67,8 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
       path: '/audit-jobs/:jobId',
       allow: ['director'],
       handler: async (req, res) => {
-        const id = z.uuid().parse(req.params.jobId)
-        res.json(await getAuditRun(ctx.db, ctx.jobs, req.club.clubId, id))
+        const { jobId } = jobParams.parse(req.params)
+        res.json(await getAuditRun(ctx.db, ctx.jobs, req.club.clubId, jobId))
       },
     },
     {
