@@ -94,14 +94,15 @@ const uuidLike = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$
 const dateLike = /^\d{4}-\d{2}-\d{2}$/
 const longText = 'x'.repeat(100_000)
 
-/** Wrong values for one field, given its valid value. */
-function wrongValues(value: unknown): [string, unknown][] {
+/** Wrong values for one field, given its valid value; `copy` when it is a copy kept as is. */
+function wrongValues(value: unknown, copy: boolean): [string, unknown][] {
   if (typeof value === 'string') {
     const wrong: [string, unknown][] = [
       ['an object for a string', { text: value }],
       ['100,000 characters', longText],
     ]
     if (uuidLike.test(value)) wrong.push(['an array for an id', [value]])
+    if (uuidLike.test(value) && !copy) wrong.push(['a UUID of nothing', randomUUID()])
     if (dateLike.test(value))
       wrong.push(['February 30th', '2026-02-30'], ['not a date', 'not-a-date'])
     return wrong
@@ -146,9 +147,14 @@ const at = (body: unknown, path: (string | number)[]) =>
 
 /**
  * Malformed bodies for a route whose valid body is `base`: the body replaced as a whole, then
- * each of its fields in turn spoiled while the others stay valid.
+ * each of its fields in turn spoiled while the others stay valid. Ids of nothing are sent too,
+ * except in `copies`: top-level fields holding a copy kept as it was, whose ids may name things
+ * deleted since.
  */
-export function bodyCases(base: unknown, emptyIsValid = false): BodyCase[] {
+export function bodyCases(
+  base: unknown,
+  { emptyIsValid = false, copies = [] }: { emptyIsValid?: boolean; copies?: string[] } = {},
+): BodyCase[] {
   const whole: BodyCase[] = [
     json('a null body', null),
     json('a list body', []),
@@ -159,8 +165,9 @@ export function bodyCases(base: unknown, emptyIsValid = false): BodyCase[] {
     { label: 'JSON sent as text', raw: JSON.stringify(base ?? {}), type: 'text/plain' },
     { label: 'a form body', raw: 'name=x&id=1', type: 'application/x-www-form-urlencoded' },
   ].map((c) => ({ ...c, wholeBody: true }))
+  const isCopy = (path: (string | number)[]) => copies.includes(String(path[0]))
   const fields = fieldPaths(base).flatMap((path) =>
-    wrongValues(at(base, path)).map(([what, value]) =>
+    wrongValues(at(base, path), isCopy(path)).map(([what, value]) =>
       json(`${path.join('.')}: ${what}`, replaced(base, path, value), path.join('.')),
     ),
   )

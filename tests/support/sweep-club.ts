@@ -23,6 +23,8 @@ export interface BaseRequest {
   body?: unknown
   /** Every field of the body may be left out: `{}` is a valid body. */
   emptyIsValid?: boolean
+  /** Top-level fields holding a copy kept as it was (a plan's model): see `bodyCases`. */
+  copies?: string[]
   /** The body is a file's bytes, not JSON: it is only replaced as a whole. */
   fileBody?: boolean
   query?: Record<string, string>
@@ -261,8 +263,8 @@ export async function sweepClub(t: TestApp, database: Database) {
       },
     },
     'GET /plans': { query: { squadId: squad.id } },
-    'POST /plans': { body: planBody },
-    'PUT /plans/:planId': { body: planBody },
+    'POST /plans': { body: planBody, copies: ['model'] },
+    'PUT /plans/:planId': { body: planBody, copies: ['model'] },
     'POST /plans/:planId/outcome': {
       body: { occurredOn: addDays(0), passed: [{ athleteId: athlete.id, elementId: anyElement }] },
     },
