@@ -83,10 +83,11 @@ export interface BodyCase {
   wholeBody?: boolean
 }
 
+const jsonType = 'application/json'
 const json = (label: string, value: unknown, field?: string): BodyCase => ({
   label,
   raw: JSON.stringify(value),
-  type: 'application/json',
+  type: jsonType,
   field,
 })
 
@@ -161,9 +162,14 @@ export function bodyCases(
     json('a string body', 'body'),
     json('a number body', 7),
     ...(emptyIsValid ? [] : [json('an empty object', {})]),
-    { label: 'a body that is not JSON', raw: '{"name": ', type: 'application/json' },
+    { label: 'a body that is not JSON', raw: '{"name": ', type: jsonType },
     { label: 'JSON sent as text', raw: JSON.stringify(base ?? {}), type: 'text/plain' },
     { label: 'a form body', raw: 'name=x&id=1', type: 'application/x-www-form-urlencoded' },
+    {
+      label: 'JSON in UTF-16',
+      raw: JSON.stringify(base ?? {}),
+      type: `${jsonType}; charset=utf-16`,
+    },
   ].map((c) => ({ ...c, wholeBody: true }))
   const isCopy = (path: (string | number)[]) => copies.includes(String(path[0]))
   const fields = fieldPaths(base).flatMap((path) =>
