@@ -18,7 +18,7 @@ import type { AppContext } from './context.ts'
 import type { Database } from './db/client.ts'
 import { jobSettingsOf, type Env } from './env.ts'
 import { apiNotFound, errorHandler } from './http/errors.ts'
-import { refuseNulCharacters } from './http/input-guards.ts'
+import { refuseUnstorableText } from './http/input-guards.ts'
 import { noStore } from './http/no-store.ts'
 import { requireSameOrigin } from './http/same-origin.ts'
 import { createJobQueue } from './jobs/queue.ts'
@@ -110,7 +110,7 @@ export function createApp({ env, database, logger, mailer, limits, clientDir }: 
   const api = express.Router()
   api.use(requireSameOrigin(env.PUBLIC_URL))
   api.use(noStore)
-  api.use(refuseNulCharacters)
+  api.use(refuseUnstorableText)
   api.use(sessions.load)
   api.use('/auth', authRouter(ctx))
   api.use('/signup', signupRouter(ctx))

@@ -1,6 +1,10 @@
 import type { RequestHandler } from 'express'
 import type { ApiIssue } from '../../shared/schemas/errors.ts'
-import { hasNulCharacter, nulCharacterMessage } from '../../shared/schemas/text.ts'
+import {
+  nulCharacterMessage,
+  unstorableText,
+  withBrokenCharactersShown,
+} from '../../shared/schemas/text.ts'
 import { AppError } from './errors.ts'
 
 const maxIssues = 20
@@ -8,16 +12,18 @@ const maxIssues = 20
 /**
  * Refuses any request carrying the NUL character (U+0000) in its path, query or JSON body with
  * 400 `invalid_input`, naming each place. PostgreSQL cannot store NUL in text, so without this
- * one check every text field, present or future, would turn it into a 500.
+ * one check every text field, present or future, would turn it into a 500. A string or key with
+ * half of a UTF-16 surrogate pair (a `\ud800` escape in JSON) is refused the same way: it would
+ * be stored as U+FFFD, not as sent.
  */
-export const refuseNulCharacters: RequestHandler = (req, _res, next) => {
+export const refuseUnstorableText: RequestHandler = (req, _res, next) => {
   const issues: ApiIssue[] = []
   // Route parameters are only known inside the matched route: look at the raw path instead.
   // U+0000 can reach it only percent-encoded.
   const path = req.originalUrl.split('?', 1)[0]!
   if (/%00/i.test(path)) issues.push({ path: 'path', message: nulCharacterMessage })
-  collectNul(req.query, ['query'], issues)
-  collectNul(req.body, [], issues)
+  collectUnstorable(req.query, ['query'], issues)
+  collectUnstorable(req.body, [], issues)
   if (issues.length === 0) return next()
   next(new AppError(400, 'invalid_input', 'Some fields are not valid.', issues))
 }
@@ -41,16 +47,16 @@ function pathOf(entry: Pending, rootPath: (string | number)[]) {
 
 /**
  * Walks a parsed JSON value (without recursion, and in time linear in its size) and adds an
- * issue for each string, or key, holding NUL, and one for a value nested too deep.
+ * issue for each string, or key, that cannot be stored as text, and one for a value nested too deep.
  */
-function collectNul(root: unknown, rootPath: (string | number)[], issues: ApiIssue[]) {
+function collectUnstorable(root: unknown, rootPath: (string | number)[], issues: ApiIssue[]) {
   const pending: Pending[] = [{ value: root, key: null, parent: null, depth: 0 }]
   while (pending.length > 0 && issues.length < maxIssues) {
     const entry = pending.pop()!
     const { value, depth } = entry
     if (typeof value === 'string') {
-      if (hasNulCharacter(value))
-        issues.push({ path: pathOf(entry, rootPath), message: nulCharacterMessage })
+      const problem = unstorableText(value)
+      if (problem) issues.push({ path: pathOf(entry, rootPath), message: problem })
       continue
     }
     if (value === null || typeof value !== 'object') continue
@@ -68,14 +74,15 @@ function collectNul(root: unknown, rootPath: (string | number)[], issues: ApiIss
         pending.push({ value: value[i], key: i + first, parent: entry, depth: depth + 1 })
     } else {
       for (const [key, field] of Object.entries(value).reverse()) {
-        if (hasNulCharacter(key)) {
+        const problem = unstorableText(key)
+        if (problem) {
           const shown = {
             value: null,
-            key: key.replaceAll('\u0000', '\uFFFD'),
+            key: withBrokenCharactersShown(key.replaceAll('\u0000', '\uFFFD')),
             parent: entry,
             depth,
           }
-          issues.push({ path: pathOf(shown, rootPath), message: nulCharacterMessage })
+          issues.push({ path: pathOf(shown, rootPath), message: problem })
         } else pending.push({ value: field, key, parent: entry, depth: depth + 1 })
       }
     }

@@ -26,7 +26,7 @@ import { createMailer } from '../../server/mail/mailer.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { listElements } from '../../server/services/catalogue.ts'
 import { apiErrorBodySchema } from '../../shared/schemas/errors.ts'
-import { nulCharacterMessage } from '../../shared/schemas/text.ts'
+import { brokenCharacterMessage, nulCharacterMessage } from '../../shared/schemas/text.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, testEnv, type TestApp } from '../support/app.ts'
 import { clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
@@ -137,6 +137,43 @@ describe('text with a NUL character', () => {
   it('refuses a NUL in a query parameter, naming it', async () => {
     const res = await director.get(`${base}/elements`).query({ q: 'back\u0000tuck' })
     expectNulRefused(res, 'query.q')
+  })
+
+  // Unicode 15, section 3.9 (D91, "UTF-16"): a high surrogate (D800–DBFF) is only ever followed
+  // by a low one (DC00–DFFF); either alone is ill-formed and encodes no character. JSON lets one
+  // through as an escape ("\ud800"); UTF-8 cannot hold it (D92), so it would be stored as U+FFFD.
+  it('refuses half a surrogate pair in an athlete name, naming the field, and saves nothing', async () => {
+    const athlete = (givenName: string) => ({
+      givenName,
+      familyName: 'Surrogate',
+      birthYear: 2013,
+      squadId: fixture.squad.id,
+      discipline: 'artistic-women',
+    })
+    const count = async () =>
+      (await director.get(`${base}/athletes`).expect(200)).body.filter(
+        (a: { familyName: string }) => a.familyName === 'Surrogate',
+      ).length
+    for (const broken of ['Ada\ud800', '\udc00Ada', 'Ada\udc00\ud800']) {
+      const res = await director.post(`${base}/athletes`).send(athlete(broken))
+      expect(res.status).toBe(400)
+      expect(res.body.error.code).toBe('invalid_input')
+      expect(issuesOf(res)).toContainEqual({ path: 'givenName', message: brokenCharacterMessage })
+    }
+    expect(await count()).toBe(0)
+    // A whole pair is a character like any other (U+1F938, person doing a cartwheel): saved as sent.
+    const res = await director
+      .post(`${base}/athletes`)
+      .send(athlete('Ada \ud83e\udd38'))
+      .expect(201)
+    expect(res.body.givenName).toBe('Ada \u{1F938}')
+    expect(await count()).toBe(1)
+  })
+
+  it('refuses half a surrogate pair in a key, naming the key with U+FFFD in its place', async () => {
+    const res = await director.post(`${base}/squads`).send({ name: 'Squad C', 'lev\ud800el': 'x' })
+    expect(res.status).toBe(400)
+    expect(issuesOf(res)).toContainEqual({ path: 'lev\ufffdel', message: brokenCharacterMessage })
   })
 
   it('answers 400, not 500, when PostgreSQL itself refuses a NUL the input checks missed', async () => {
