@@ -144,6 +144,13 @@ export async function uploadClip(
       'too_large',
       `This clip is ${Math.ceil(size / 1_000_000)} MB: the limit is ${ctx.env.CLIP_MAX_MB} MB.`,
     )
+  // A JSON or form body has been read by its parser already: it holds no file.
+  if (req.readableEnded)
+    throw fileIssue(
+      400,
+      'invalid_input',
+      'Send the video file itself as the body of the request, not JSON or a form.',
+    )
   const head = await takeHead(req, clipSniffBytes)
   const container = sniffClipContainer(head)
   if (!container)

@@ -141,7 +141,12 @@ describe('uploading a clip', () => {
       .set('Content-Type', 'application/json')
       .timeout(5_000)
     expect(res.status).toBe(400)
-    expect(res.body.error.issues).toEqual([{ path: 'file', message: expect.any(String) }])
+    expect(res.body.error.issues).toEqual([
+      {
+        path: 'file',
+        message: 'Send the video file itself as the body of the request, not JSON or a form.',
+      },
+    ])
   })
 
   it('refuses a clip over the size limit with 413 naming the file', async () => {
