@@ -268,27 +268,21 @@ export const within = (checks: Paced, windows: Window[]) =>
 /**
  * Starts a worker process (`server/worker.ts`), as production runs it apart from the web
  * processes, and resolves once it has started; `stop()` sends SIGTERM and waits for it to exit.
- * Should this process end first, the worker is told to stop too.
  */
 export async function startWorker(env: Record<string, string>, publicUrl: string) {
   const worker = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
     env: { PATH: process.env.PATH ?? '', PUBLIC_URL: publicUrl, ...env },
-    stdio: ['ignore', 'pipe', 'inherit'],
+    // With a channel to this process: should it end first, however it ends, the channel closes
+    // and the worker stops by itself.
+    stdio: ['ignore', 'pipe', 'inherit', 'ipc'],
     // In a session of its own, as a process manager starts it, so that it can lower its
     // autogroup (server/jobs/priority.ts).
     detached: true,
   })
-  const orphaned = () => worker.kill('SIGTERM')
-  process.once('exit', orphaned)
-  const exited = new Promise<void>((resolve) =>
-    worker.once('exit', () => {
-      process.off('exit', orphaned)
-      resolve()
-    }),
-  )
+  const exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()))
   await new Promise<void>((resolve, reject) => {
     worker.once('exit', (code) => reject(new Error(`the worker exited (${code})`)))
-    worker.stdout.on('data', (chunk: Buffer) => {
+    worker.stdout!.on('data', (chunk: Buffer) => {
       if (chunk.toString().includes('worker started')) resolve()
     })
   })

@@ -123,6 +123,8 @@ export function stopOnSignals(serving: Serving, onStop: () => void | Promise<voi
   }
   process.on('SIGINT', () => void stop('SIGINT'))
   process.on('SIGTERM', () => void stop('SIGTERM'))
+  // The terminal that started it closed.
+  process.on('SIGHUP', () => void stop('SIGHUP'))
 }
 
 /**

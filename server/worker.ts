@@ -25,8 +25,10 @@ export async function runWorker() {
   const logger = createLogger(env)
   if (autogroup === 'shared') {
     logger.warn(
-      'this worker shares its session, hence its CPU share, with other processes: start it in a session of its own (setsid) so that web processes and the database go first',
+      'this worker does not lead a session of its own, so it leaves its CPU share as it is: start it with setsid (or under a service manager) so that web processes and the database go first',
     )
+  } else if (autogroup === 'refused') {
+    logger.warn("the system refused to lower this worker session's CPU share")
   }
   const database = createDatabase(env.DATABASE_URL, logger)
   const mailer = await createMailer(env, logger)
@@ -48,6 +50,9 @@ export async function runWorker() {
     process.exit(code)
   }
   process.on('SIGTERM', () => void stop('SIGTERM', 0))
+  // Started by `npm start` or a benchmark, with a channel to it: when that process ends, however
+  // it ends (a closed terminal, SIGKILL), the channel closes and the worker stops too.
+  if (process.send) process.once('disconnect', () => void stop('parent gone', 0))
   process.on('SIGINT', () => void stop('SIGINT', 0))
   process.on('unhandledRejection', (err) => {
     logger.fatal({ err }, 'unhandled rejection')

@@ -44,14 +44,15 @@ try {
   const serving = await serve({ ...env, DATABASE_URL: local.url, NODE_ENV: 'development' })
   // Audits and mail are done by a worker process of their own, as in production, sending mail
   // through the local fake mail server of the web process. In a session of its own, it lowers
-  // its CPU share against this process and PostgreSQL (server/jobs/priority.ts); Ctrl-C reaches
-  // this process alone, which stops the worker (below, or as it exits).
+  // its CPU share against this process and PostgreSQL (server/jobs/priority.ts). Ctrl-C reaches
+  // this process alone, which stops the worker; should this process end any other way (a closed
+  // terminal, SIGKILL), the worker's channel to it closes and the worker stops by itself.
   const worker = spawn(
     process.execPath,
     ['--import', 'tsx', join(projectDir, 'server/worker.ts')],
     {
       cwd: projectDir,
-      stdio: 'inherit',
+      stdio: ['inherit', 'inherit', 'inherit', 'ipc'],
       env: {
         ...process.env,
         NODE_ENV: 'development',

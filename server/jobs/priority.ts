@@ -38,86 +38,58 @@ export function lowerProcessPriority(niceness: number): number {
 }
 
 /** What became of the worker's autogroup: see `lowerAutogroupPriority`. */
-export type AutogroupOutcome = 'lowered' | 'shared' | 'none'
-
-/** A process's parent and session, from /proc/<pid>/stat; undefined once it has ended. */
-function processOf(pid: string): { parent: number; session: number } | undefined {
-  let stat: string
-  try {
-    stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
-  } catch {
-    return undefined
-  }
-  // proc(5): the fields after the command name (in parentheses, which may hold spaces) start
-  // at field 3 (state); the parent is field 4, the session field 6.
-  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
-  return { parent: Number(fields[1]), session: Number(fields[3]) }
-}
+export type AutogroupOutcome = 'lowered' | 'shared' | 'refused' | 'none'
 
 /**
- * Whether every other process of this process's session is one of its ancestors or its
- * descendants: the session is then this process's own, with at most the commands that started
- * it (`setsid npm run worker`: setsid, npm and a shell, each waiting on the next) and the
- * processes it started itself (the TypeScript loader's compiler, in development).
+ * Whether this process leads a session of its own (setsid(2)): its session id, field 6 of
+ * /proc/self/stat (proc(5)), is its own pid. The fields after the command name (in parentheses,
+ * which may hold spaces) start at field 3.
  */
-function ownsSession(): boolean {
-  const table = new Map<number, { parent: number; session: number }>()
-  for (const entry of readdirSync('/proc')) {
-    if (!/^\d+$/.test(entry)) continue
-    const found = processOf(entry)
-    if (found) table.set(Number(entry), found)
-  }
-  const lineage = (pid: number) => {
-    const chain = new Set<number>()
-    for (let at = table.get(pid)?.parent ?? 0; at > 0 && !chain.has(at);) {
-      chain.add(at)
-      at = table.get(at)?.parent ?? 0
-    }
-    return chain
-  }
-  const self = table.get(process.pid)
-  if (!self) return false
-  const ancestors = lineage(process.pid)
-  for (const [pid, { session }] of table) {
-    if (session !== self.session || pid === process.pid || ancestors.has(pid)) continue
-    if (!lineage(pid).has(process.pid)) return false
-  }
-  return true
+function leadsSession(): boolean {
+  const stat = readFileSync('/proc/self/stat', 'utf8')
+  const session = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[3])
+  return session === process.pid
 }
 
+/** How long a worker keeps asking the kernel, which takes one change a tenth of a second. */
+const autogroupPatienceMs = 2000
+
 /**
- * Lowers this process's autogroup to `niceness`, when the process has one of its own.
+ * Lowers this process's autogroup to `niceness`, when the process leads a session of its own.
  *
- * On Linux with autogroups (sched(7), "The autogroup feature"; on by default in many kernels,
- * for processes outside any CPU control group), the CPU is shared between autogroups first,
- * one per session, and a niceness only ranks the threads inside one autogroup. A worker in the
- * session of its web process is then lowered against that process alone, not against
- * PostgreSQL, which runs in a session of its own and answers the web process's queries: its
- * busy core counts as a full share beside the database's. A worker in a session of its own (as
- * `npm start` and the benchmarks start it, or under `setsid`) may lower its autogroup without
- * privilege through /proc/self/autogroup. A worker whose session holds other processes
- * ('shared') leaves it alone, or it would lower them too. 'none' where there are no autogroups
- * or the system refuses.
+ * On Linux with autogroups (sched(7), "The autogroup feature"; they apply to processes in no
+ * CPU control group of their own, e.g. under cgroup v1's root, as on this project's machines),
+ * the CPU is shared between autogroups first, one per session, and a niceness only ranks the
+ * threads inside one autogroup. A worker in the session of its web process is then lowered
+ * against that process alone, not against PostgreSQL, which runs in a session of its own and
+ * answers the web process's queries: its busy core counts as a full share beside the
+ * database's. A worker that leads its session (started `detached`, as `npm start` and the
+ * benchmarks start it, or through setsid(1), or by a service manager that gives each service
+ * a session) lowers its autogroup without privilege through /proc/self/autogroup; it is the
+ * first process of that session, so nothing started before it is lowered with it. Any other
+ * worker ('shared') leaves the autogroup alone: it would lower the shell or the supervisor that
+ * started it, and everything they start afterwards. 'refused' when the kernel kept saying no;
+ * 'none' where there are no autogroups.
  */
 export function lowerAutogroupPriority(niceness: number): AutogroupOutcome {
   try {
     if (readFileSync('/proc/sys/kernel/sched_autogroup_enabled', 'utf8').trim() !== '1') {
       return 'none'
     }
-    if (!ownsSession()) return 'shared'
+    if (!leadsSession()) return 'shared'
   } catch {
     return 'none'
   }
-  for (let attempt = 0; ; attempt++) {
+  const until = Date.now() + autogroupPatienceMs
+  for (;;) {
     try {
       writeFileSync('/proc/self/autogroup', String(niceness))
       return 'lowered'
     } catch (err) {
       // The kernel takes one such change a tenth of a second from unprivileged processes, across
-      // the system (EAGAIN): two workers starting together wait their turn. Anything else, or a
-      // third refusal, leaves the autogroup as it was.
-      if ((err as NodeJS.ErrnoException).code !== 'EAGAIN' || attempt === 2) return 'none'
-      Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 110)
+      // the system (EAGAIN): workers starting together wait their turn, at staggered times.
+      if ((err as NodeJS.ErrnoException).code !== 'EAGAIN' || Date.now() > until) return 'refused'
+      Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 60 + Math.random() * 90)
     }
   }
 }
