@@ -89,9 +89,12 @@ export function shownRows(
   const steps = new Map(preview.elements.map((e) => [e.id, e.steps]))
   return preview.rows.map((row) => {
     const kept = latestFor(row.athleteId, row.elementId)
-    return kept
-      ? { ...rowAt(row, steps.get(row.elementId) ?? [], kept.predicted, occurredOn), kept: true }
-      : { ...row, kept: false }
+    if (!kept) return { ...row, kept: false }
+    // A correction leaves the record as it was until the server replays it, and a refused entry
+    // waits for the coach: the state shown is a guess, so no check is worked out on it.
+    const guess = kept.status === 'refused' || Boolean(kept.input.correctsEventId)
+    const day = guess ? undefined : occurredOn
+    return { ...rowAt(row, steps.get(row.elementId) ?? [], kept.predicted, day), kept: true }
   })
 }
 

@@ -231,6 +231,14 @@ describe('the checks of a row an entry kept on the tablet decides', () => {
     expect(moved!.checks).toEqual([prerequisite])
   })
 
+  it('works out nothing on a state the tablet only guesses: a correction, a refused entry', () => {
+    const entry = kept(batchOutboxEntry(shown(row()), given(0)), 1)
+    const refused = { ...entry, status: 'refused' as const, refusal: 'Someone logged first.' }
+    expect(shownRows(list([row()]), () => refused, '2026-11-04')[0]!.checks).toEqual([])
+    const correction = { ...entry, input: { ...entry.input, correctsEventId: eventIds[0]! } }
+    expect(shownRows(list([row()]), () => correction, '2026-11-04')[0]!.checks).toEqual([])
+  })
+
   it('names no least days for a list kept before they were sent with it', () => {
     const older = list([row()])
     older.elements[0]!.steps = batchSteps.map(({ minDays: _m, ...step }) => step)

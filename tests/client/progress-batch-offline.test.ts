@@ -227,4 +227,43 @@ describe('ProgressBatchPanel offline', () => {
     expect(added.input).toMatchObject({ stepIndex: 2, expectedLastEventId: tabletId })
     expect(added.predicted).toMatchObject({ stepIndex: 2, highestStepIndex: 2 })
   })
+
+  it('past midnight, reads the list again before saving and says which day its checks are for', async () => {
+    // 23:59 on 4 November, then 00:01 on 5 November (local time), before Save.
+    vi.useFakeTimers({ toFake: ['Date'] })
+    try {
+      vi.setSystemTime(new Date(2026, 10, 4, 23, 59))
+      vi.mocked(api.listBatch).mockResolvedValue(preview([row(0)]))
+      const { wrapper } = mount()
+      await settle()
+      const outbox = useOutboxStore()
+      checkbox(wrapper, 0).vm.$emit('update:checked', true)
+      await settle()
+      vi.setSystemTime(new Date(2026, 10, 5, 0, 1))
+      save().click()
+      await settle()
+      // Online: read again for the new day, nothing saved.
+      expect(vi.mocked(api.listBatch).mock.calls.at(-1)![2]).toMatchObject({
+        occurredOn: '2026-11-05',
+      })
+      expect(document.body.textContent).toContain(
+        'It is now 2026-11-05: the list shows today’s checks. Look again, then save.',
+      )
+      expect(api.saveBatch).not.toHaveBeenCalled()
+
+      // Offline the list read again is the one the tablet kept: its checks are of its own day.
+      outbox.online = false
+      vi.setSystemTime(new Date(2026, 10, 6, 0, 1))
+      checkbox(wrapper, 0).vm.$emit('update:checked', true)
+      await settle()
+      save().click()
+      await settle()
+      expect(document.body.textContent).toContain(
+        'It is now 2026-11-06: look again, then save. Offline, the checks shown are those of the day the list was opened here',
+      )
+      expect(kept.size).toBe(0)
+    } finally {
+      vi.useRealTimers()
+    }
+  })
 })
