@@ -88,6 +88,17 @@ describe('CatalogueElementForm', () => {
     expect(text('[data-test="notation"]')).toBe('800o')
   })
 
+  it('follows a twist as it is typed into its salto', async () => {
+    await withCatalogue(backTuck)
+    const twist = document.querySelector<HTMLInputElement>('input[name="twists.0"]')!
+    twist.value = '2'
+    twist.dispatchEvent(new Event('input'))
+    await flushPromises()
+    // FIG numeric notation (Trampoline Code of Points, from memory): quarter saltos, then the
+    // half twists of each salto, then the shape; a back tuck with a full twist is 42o.
+    expect(text('[data-test="notation"]')).toBe('42o')
+  })
+
   it('checks the input with the shared schema before sending it', async () => {
     await withCatalogue({ ...backTuck, name: '' })
     document.querySelector('form')!.dispatchEvent(new Event('submit'))
