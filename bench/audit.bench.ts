@@ -98,10 +98,11 @@ export default async function auditBench() {
       `\naudit: ${elementCount} elements × 1000 athletes, ${events} events (built in ${((performance.now() - build) / 1000).toFixed(0)} s)`,
     )
 
+    // Eleven timed runs of each, so that one slow moment of the machine moves no median.
     const audit = await time(
       () => runAndStore(db, access, { squadId: null, asOf: auditBenchAsOf }),
-      5,
-      1,
+      11,
+      2,
     )
     // What the audit reads: one row per record (its stored timeline), the athletes and the
     // catalogue.
@@ -119,8 +120,8 @@ export default async function auditBench() {
           db.select().from(elements).where(eq(elements.clubId, clubId)),
           db.select().from(athletes).where(eq(athletes.clubId, clubId)),
         ]),
-      5,
-      1,
+      11,
+      2,
     )
     // What replaying the history would have to read: every event.
     const readEvents = await time(
@@ -128,7 +129,7 @@ export default async function auditBench() {
       3,
       1,
     )
-    const gather = await time(() => gatherInputs(db, clubId, null, auditBenchAsOf), 5, 1)
+    const gather = await time(() => gatherInputs(db, clubId, null, auditBenchAsOf), 11, 2)
     report(
       'audit of the club (read, compute, hash, store)',
       audit,
