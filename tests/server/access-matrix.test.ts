@@ -24,6 +24,7 @@ import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { addDays, clubWithPeople, signedIn, testPassword } from '../support/fixtures.ts'
 import { recommend, scheduleVisit } from '../support/visits.ts'
+import { doubleSaltoProfile } from '../support/profiles.ts'
 
 // Every route under /api/clubs/:clubId, with who may use it and what a permitted request gets.
 // A route added to the server without a row here fails the first test; a row here without a
@@ -134,22 +135,7 @@ const directorAccess = (f: Fixture) => ({
   role: 'director' as const,
 })
 const newAudit = (f: Fixture) => runAndStore(f.db.db, directorAccess(f), { squadId: null })
-const profile = {
-  label: 'Test profile',
-  discipline: 'tumbling',
-  apparatus: 'tumbling',
-  categories: ['senior'],
-  source: 'from memory',
-  requirements: [
-    {
-      id: 'double',
-      label: 'A double salto',
-      source: 'from memory',
-      matches: { minRotationClass: 'double' },
-      minStepIndex: 'competition-ready',
-    },
-  ],
-}
+const profile = doubleSaltoProfile('Test profile')
 async function throwawayProfile(f: Fixture) {
   const input = requirementProfileSchema.parse({ ...profile, id: `matrix-${unique()}` })
   return (await createProfile(f.db.db, directorAccess(f), input)).id

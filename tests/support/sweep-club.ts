@@ -14,6 +14,7 @@ import { requirementProfileSchema } from '../../shared/schemas/audits.ts'
 import type { TestApp } from './app.ts'
 import { addDays, clubWithPeople, floorTucks, signedIn, testPassword } from './fixtures.ts'
 import { recommend, scheduleVisit } from './visits.ts'
+import { doubleSaltoProfile } from './profiles.ts'
 
 // A club with one of everything, the valid request of each route that takes a body or reads a
 // query, and the value of each path parameter: the sweep spoils one part of these at a time.
@@ -40,22 +41,7 @@ const elementBody = (apparatus: string) => ({
   takeOff: 'standing',
 })
 const oneStep = [{ name: 'Competition-ready', modality: 'routine', criterion: 'Twice.' }]
-const profile = {
-  label: 'Sweep profile',
-  discipline: 'tumbling',
-  apparatus: 'tumbling',
-  categories: ['senior'],
-  source: 'from memory',
-  requirements: [
-    {
-      id: 'double',
-      label: 'A double salto',
-      source: 'from memory',
-      matches: { minRotationClass: 'double' },
-      minStepIndex: 'competition-ready',
-    },
-  ],
-}
+const profile = doubleSaltoProfile('Sweep profile')
 const station = (name: string) => ({
   name,
   modality: 'trampoline',
