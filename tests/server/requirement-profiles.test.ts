@@ -12,6 +12,7 @@ import { runAndStore } from '../../server/services/audits.ts'
 import { freshDatabase } from '../support/database.ts'
 import { testApp, type TestApp } from '../support/app.ts'
 import { clubWithPeople, signedIn } from '../support/fixtures.ts'
+import { doubleSaltoProfile } from '../support/profiles.ts'
 
 let database: Database
 let t: TestApp
@@ -26,20 +27,7 @@ let base: string
 
 const tumblingSenior = {
   id: 'tumbling-senior-passes',
-  label: 'Tumbling: senior passes',
-  discipline: 'tumbling',
-  apparatus: 'tumbling',
-  categories: ['senior'],
-  source: 'from memory',
-  requirements: [
-    {
-      id: 'double',
-      label: 'A double salto',
-      source: 'from memory',
-      matches: { minRotationClass: 'double' },
-      minStepIndex: 'competition-ready',
-    },
-  ],
+  ...doubleSaltoProfile('Tumbling: senior passes'),
 }
 
 beforeAll(async () => {
