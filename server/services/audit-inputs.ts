@@ -2,23 +2,29 @@
 // steps as of that date. Kept apart from running and storing audits because it is the part whose
 // speed matters (see bench/audit.bench.ts).
 
-import { and, asc, eq, inArray, isNull } from 'drizzle-orm'
+import { and, asc, eq, isNull, sql, type SQL } from 'drizzle-orm'
+import { alias } from 'drizzle-orm/pg-core'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
 import type {
+  AuditElement,
   AuditInputs,
   AuditRecord,
   RequirementProfile,
 } from '../../shared/domain/audit/types.ts'
-import { paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/progress.ts'
+import {
+  paceWindow,
+  stepsAsOf,
+  timelinePace,
+  type TimelinePoint,
+} from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
-import { elementSteps } from '../db/schema-catalogue.ts'
-import { listElements } from './catalogue.ts'
+import { elements, elementSteps } from '../db/schema-catalogue.ts'
 import { replayedTimeline } from './progress-records.ts'
 
-/** Athletes whose records one query reads: about 20,000 rows for 200 athletes. */
-const defaultAthletesPerBatch = 200
+/** Records one read of the cursor brings: about 200 athletes' worth. */
+const defaultRecordsPerRead = 20_000
 /** Lets the event loop run whatever is waiting (I/O, timers) before going on. */
 const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve))
 
@@ -51,6 +57,39 @@ export async function clubAgeThresholds(db: DbOrTx, clubId: string): Promise<Age
   return table
 }
 
+const counterpart = alias(elements, 'counterpart')
+
+/**
+ * The catalogue as the audit sees it, in one query: each element's classification as stored
+ * (derived on every write, the columns the catalogue's filters use too), its counterpart found by
+ * key as the catalogue finds it, and the length of its progression (1 when it has no steps).
+ * Only what the audit uses: deriving an element's notation and the rest for 300 elements took
+ * longer than reading them.
+ */
+export async function auditCatalogue(db: DbOrTx, clubId: string): Promise<AuditElement[]> {
+  const stepCount = sql<number>`(select coalesce(max(${elementSteps.position}) + 1, 1)::int from ${elementSteps} where ${elementSteps.clubId} = ${elements.clubId} and ${elementSteps.elementId} = ${elements.id})`
+  return db
+    .select({
+      id: elements.id,
+      name: elements.name,
+      apparatus: elements.apparatus,
+      direction: elements.direction,
+      rotationClass: elements.rotationClass,
+      twistBand: elements.twistBand,
+      counterpartId: counterpart.id,
+      stepCount,
+    })
+    .from(elements)
+    .leftJoin(
+      counterpart,
+      and(
+        eq(counterpart.clubId, elements.clubId),
+        eq(counterpart.descriptionKey, elements.counterpartKey),
+      ),
+    )
+    .where(eq(elements.clubId, clubId))
+}
+
 /**
  * Everything the audit reads, as of a date: the catalogue, the athletes of the scope, each
  * record's highest step reached by that date (in today's steps), the athletes' recent pace, the
@@ -66,12 +105,10 @@ export async function gatherInputs(
   clubId: string,
   squadId: string | null,
   asOf: string,
-  { athletesPerBatch = defaultAthletesPerBatch }: { athletesPerBatch?: number } = {},
+  { recordsPerRead = defaultRecordsPerRead }: { recordsPerRead?: number } = {},
 ): Promise<AuditInputs> {
-  if (!Number.isInteger(athletesPerBatch) || athletesPerBatch < 1) {
-    throw new RangeError(
-      `athletesPerBatch must be a whole number of at least 1: ${athletesPerBatch}`,
-    )
+  if (!Number.isInteger(recordsPerRead) || recordsPerRead < 1) {
+    throw new RangeError(`recordsPerRead must be a whole number of at least 1: ${recordsPerRead}`)
   }
   const inRoster = and(
     eq(athletes.clubId, clubId),
@@ -80,11 +117,7 @@ export async function gatherInputs(
   )
   // One query after another: the caller may hand us a transaction, whose one connection runs
   // one query at a time.
-  const catalogue = await listElements(db, clubId)
-  const stepRows = await db
-    .select({ elementId: elementSteps.elementId, position: elementSteps.position })
-    .from(elementSteps)
-    .where(eq(elementSteps.clubId, clubId))
+  const catalogue = await auditCatalogue(db, clubId)
   const roster = await db
     .select({
       id: athletes.id,
@@ -96,60 +129,27 @@ export async function gatherInputs(
     .where(inRoster)
   const profiles = await clubProfiles(db, clubId)
   const thresholds = await clubAgeThresholds(db, clubId)
-  const stepCount = new Map<string, number>()
-  for (const s of stepRows)
-    stepCount.set(s.elementId, Math.max(stepCount.get(s.elementId) ?? 0, s.position + 1))
 
-  // The records, a batch of athletes at a time: each batch's rows are done with before the next
-  // is read, so a large club's rows never sit in memory all at once, and between batches the
-  // database and this process are free for other work. Each athlete's rows come in the order
-  // the table holds them, as from one query over the club.
   const records: AuditRecord[] = []
   const paces: Record<string, number> = {}
   const window = paceWindow(asOf)
-  const ids = roster.map((a) => a.id).sort()
-  for (let from = 0; from < ids.length; from += athletesPerBatch) {
-    // One batch after another: inside the snapshot's transaction its one connection runs one
-    // query at a time anyway, so asking for the next batch early would only queue it.
-    const recordRows = await db
-      .select({
-        athleteId: progressRecords.athleteId,
-        elementId: progressRecords.elementId,
-        timeline: progressRecords.timeline,
-      })
-      .from(progressRecords)
-      .where(
-        and(
-          eq(progressRecords.clubId, clubId),
-          inArray(progressRecords.athleteId, ids.slice(from, from + athletesPerBatch)),
-        ),
-      )
-    for (const row of recordRows) {
+  await readRecords(db, clubId, inRoster, recordsPerRead, async (rows) => {
+    for (const row of rows) {
       const timeline =
-        row.timeline ?? (await replayedTimeline(db, clubId, row.athleteId, row.elementId))
+        row.timeline ?? (await replayedTimeline(db, clubId, row.athlete_id, row.element_id))
       const reached = stepsAsOf(timeline, asOf)
       if (reached === null) continue
       records.push({
-        athleteId: row.athleteId,
-        elementId: row.elementId,
+        athleteId: row.athlete_id,
+        elementId: row.element_id,
         stepIndex: reached[2],
       })
-      paces[row.athleteId] = (paces[row.athleteId] ?? 0) + timelinePace(timeline, window)
+      paces[row.athlete_id] = (paces[row.athlete_id] ?? 0) + timelinePace(timeline, window)
     }
-    await yieldToOthers()
-  }
+  })
   return {
     asOf,
-    elements: catalogue.map((e) => ({
-      id: e.id,
-      name: e.name,
-      apparatus: e.apparatus,
-      direction: e.direction,
-      rotationClass: e.rotationClass,
-      twistBand: e.twistBand,
-      counterpartId: e.counterpartId,
-      stepCount: stepCount.get(e.id) ?? 1,
-    })),
+    elements: catalogue,
     athletes: roster,
     records,
     paces,
@@ -172,5 +172,59 @@ export function gatherSnapshot(
   return db.transaction((tx) => gatherInputs(tx, clubId, squadId, asOf), {
     isolationLevel: 'repeatable read',
     accessMode: 'read only',
+  })
+}
+
+interface RecordRow {
+  athlete_id: string
+  element_id: string
+  timeline: TimelinePoint[] | null
+}
+
+/**
+ * Hands the records of the athletes `inRoster` picks to `take`, `recordsPerRead` rows at a time,
+ * through a cursor over one query: a large club's rows never sit in memory all at once, yet the
+ * table is read in one pass (pages in key order, or a query per list of athletes, measured
+ * 10–25% slower). Between reads the process is free for other work; the next rows are not asked
+ * for before `take` is done with these, so the audit keeps to one core at a time (the database's
+ * or this process's) and leaves the other to the web processes. Runs in a transaction (a
+ * savepoint inside the caller's), which a cursor needs.
+ */
+async function readRecords(
+  db: DbOrTx,
+  clubId: string,
+  inRoster: SQL | undefined,
+  recordsPerRead: number,
+  take: (rows: RecordRow[]) => Promise<void>,
+) {
+  await db.transaction(async (tx) => {
+    // The whole result is wanted: plan for all its rows, not the first tenth a cursor's plan
+    // favours by default (a plan that starts fast and reads the table in key order, slower).
+    await tx.execute(sql`set local cursor_tuple_fraction = 1`)
+    const query = tx
+      .select({
+        athleteId: progressRecords.athleteId,
+        elementId: progressRecords.elementId,
+        timeline: progressRecords.timeline,
+      })
+      .from(progressRecords)
+      .innerJoin(
+        athletes,
+        and(
+          eq(athletes.clubId, progressRecords.clubId),
+          eq(athletes.id, progressRecords.athleteId),
+        ),
+      )
+      .where(and(eq(progressRecords.clubId, clubId), inRoster))
+    await tx.execute(sql`declare audit_records no scroll cursor for ${query}`)
+    // FETCH takes its count as a literal; recordsPerRead is a checked whole number.
+    const fetch = sql.raw(`fetch ${recordsPerRead} from audit_records`)
+    for (;;) {
+      const { rows }: { rows: unknown[] } = await tx.execute(fetch)
+      await take(rows as RecordRow[])
+      if (rows.length < recordsPerRead) break
+      await yieldToOthers()
+    }
+    await tx.execute(sql`close audit_records`)
   })
 }

@@ -2,8 +2,11 @@ import { and, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { athletes, progressRecords } from '../../server/db/schema-athletes.ts'
+import { elementSteps } from '../../server/db/schema-catalogue.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { gatherInputs } from '../../server/services/audit-inputs.ts'
+import { listElements, stepsOf } from '../../server/services/catalogue.ts'
+import { createElement } from '../../server/services/catalogue-writes.ts'
 import { recordEvent } from '../../server/services/progress-events.ts'
 import { appendHistory, type HistoryEvent } from '../../server/services/progress-history.ts'
 import { recordDetail } from '../../server/services/progress-reads.ts'
@@ -74,6 +77,49 @@ async function inputsFor(athleteId: string, asOf: string) {
 }
 
 describe('the audit’s inputs as of a date', () => {
+  it('reads each element as the catalogue shows it, with the length of its progression', async () => {
+    // One element whose progression was never stored (a new element gets its template's steps,
+    // so the rows are removed here): it counts as one step.
+    const bare = await createElement(database.db, access(), {
+      name: 'Back salto piked with full twist (no steps yet)',
+      apparatus: 'trampoline',
+      direction: 'backward',
+      quarterRotations: 4,
+      twists: [2],
+      shape: 'pike',
+      takeOff: 'standing',
+    })
+    await database.db
+      .delete(elementSteps)
+      .where(and(eq(elementSteps.clubId, fx.club.id), eq(elementSteps.elementId, bare.id)))
+    const inputs = await gatherInputs(database.db, fx.club.id, fx.squad.id, '2026-06-30')
+    const catalogue = await listElements(database.db, fx.club.id)
+    const expected = await Promise.all(
+      catalogue.map(async (e) => ({
+        id: e.id,
+        name: e.name,
+        apparatus: e.apparatus,
+        direction: e.direction,
+        rotationClass: e.rotationClass,
+        twistBand: e.twistBand,
+        counterpartId: e.counterpartId,
+        stepCount: Math.max(1, (await stepsOf(database.db, fx.club.id, e.id)).length),
+      })),
+    )
+    const byId = (a: { id: string }, b: { id: string }) => (a.id < b.id ? -1 : 1)
+    expect([...inputs.elements].sort(byId)).toEqual(expected.sort(byId))
+    // A back salto tucked is one rotation (FIG numeric notation: 4 quarter rotations) with no
+    // twist, and its counterpart is the front salto tucked.
+    const back = inputs.elements.find((e) => e.id === backTuck)!
+    expect(back).toMatchObject({ rotationClass: 'single', twistBand: 'none' })
+    expect(back.counterpartId).toBe(frontTuck)
+    expect(inputs.elements.find((e) => e.id === bare.id)).toMatchObject({
+      stepCount: 1,
+      rotationClass: 'single',
+      twistBand: 'full',
+    })
+  })
+
   it('takes each record’s highest step by the date and the pace over the 180 days before it', async () => {
     const athlete = await newAthlete('Asof')
     await appendHistory(database.db, fx.club.id, [
@@ -154,8 +200,10 @@ describe('the audit’s inputs as of a date', () => {
       level: 'junior',
       discipline: 'artistic-women',
     })
-    // 205 athletes read 50 at a time: five reads, one after another. Athlete
-    // i reached step i mod 3 on the back tuck on 10 January, and nothing before.
+    // 205 athletes, one in four with a second record, read 50 records at a time: six reads,
+    // one after another. Athlete i reached step i mod 3 on the back tuck on 10 January, and
+    // nothing before; one in four also reached the front tuck's first step that day.
+    const twoRecords = (i: number) => i % 4 === 0
     const ids: string[] = []
     const history: HistoryEvent[] = []
     for (let i = 0; i < 205; i++) {
@@ -168,6 +216,7 @@ describe('the audit’s inputs as of a date', () => {
       })
       ids.push(id)
       history.push(step(id, backTuck, i % 3, '2026-01-10'))
+      if (twoRecords(i)) history.push(step(id, frontTuck, 0, '2026-01-10'))
     }
     await appendHistory(database.db, fx.club.id, history)
     const archived = ids[150]!
@@ -176,40 +225,47 @@ describe('the audit’s inputs as of a date', () => {
       .set({ archivedAt: new Date() })
       .where(and(eq(athletes.clubId, fx.club.id), eq(athletes.id, archived)))
 
-    const reading = { athletesPerBatch: 50 }
+    const reading = { recordsPerRead: 50 }
     const inputs = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30', reading)
     const expected = ids.flatMap((id, i) =>
-      id === archived ? [] : [{ athleteId: id, elementId: backTuck, stepIndex: i % 3 }],
+      id === archived
+        ? []
+        : [
+            { athleteId: id, elementId: backTuck, stepIndex: i % 3 },
+            ...(twoRecords(i) ? [{ athleteId: id, elementId: frontTuck, stepIndex: 0 }] : []),
+          ],
     )
-    const byAthlete = (a: { athleteId: string }, b: { athleteId: string }) =>
-      a.athleteId < b.athleteId ? -1 : 1
+    const key = (r: { athleteId: string; elementId: string }) => `${r.athleteId} ${r.elementId}`
+    const byAthlete = (a: { athleteId: string; elementId: string }, b: typeof a) =>
+      key(a) < key(b) ? -1 : 1
     expect(inputs.athletes.map((a) => a.id).sort()).toEqual(
       ids.filter((id) => id !== archived).sort(),
     )
     expect([...inputs.records].sort(byAthlete)).toEqual(expected.sort(byAthlete))
     // The window opens on 1 January: from below the first step (−1) to step s is s + 1 steps in
-    // 180 days, (s + 1) / 180 × 30 = (s + 1) / 6 steps per 30 days.
+    // 180 days, (s + 1) / 180 × 30 = (s + 1) / 6 steps per 30 days; the front tuck adds 1 / 6.
     ids.forEach((id, i) => {
       if (id === archived) expect(inputs.paces?.[id]).toBeUndefined()
-      else expect(inputs.paces?.[id]).toBeCloseTo(((i % 3) + 1) / 6, 12)
+      else expect(inputs.paces?.[id]).toBeCloseTo(((i % 3) + 1 + (twoRecords(i) ? 1 : 0)) / 6, 12)
     })
-    // The same inside a transaction, whose one connection runs one query at a time.
+    // The same inside a transaction, whose one connection runs one query at a time, one record
+    // per read: every athlete with two records is read in two.
     const inTransaction = await database.db.transaction((tx) =>
-      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30', reading),
+      gatherInputs(tx, fx.club.id, squad.id, '2026-06-30', { recordsPerRead: 1 }),
     )
-    // And with the default reads (two of them), the same records.
+    // And with the default reads (one of them), the same records.
     const inTwo = await gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30')
     expect([...inTwo.records].sort(byAthlete)).toEqual(expected)
     expect([...inTransaction.records].sort(byAthlete)).toEqual(expected)
     expect(inTransaction.paces).toEqual(inputs.paces)
-    // The input hash does not depend on the order the batches brought the records in.
+    // The input hash does not depend on the order the reads brought the records in.
     const reordered = { ...inputs, records: [...inputs.records].reverse() }
     expect(await auditInputHash(inputs)).toBe(await auditInputHash(reordered))
-    // A batch of no athletes would never end: refused before any read.
-    for (const athletesPerBatch of [0, -1, 2.5, Number.NaN]) {
+    // A read of no records would never end: refused before any read.
+    for (const recordsPerRead of [0, -1, 2.5, Number.NaN]) {
       await expect(
-        gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30', { athletesPerBatch }),
-      ).rejects.toThrow(/athletesPerBatch/)
+        gatherInputs(database.db, fx.club.id, squad.id, '2026-06-30', { recordsPerRead }),
+      ).rejects.toThrow(/recordsPerRead/)
     }
   }, 60_000)
 })
