@@ -157,6 +157,17 @@ describe('running an audit', () => {
     ])
   })
 
+  it('compresses stored results with lz4, quicker to write than the default', async () => {
+    // PostgreSQL 15 manual, ALTER TABLE … SET COMPRESSION: 'l' in pg_attribute.attcompression
+    // is lz4, 'p' pglz and '' the server's default (pglz unless default_toast_compression says
+    // otherwise).
+    const { rows } = await database.pool.query<{ attcompression: string }>(
+      `select attcompression from pg_attribute
+        where attrelid = 'audits'::regclass and attname = 'result'`,
+    )
+    expect(rows).toEqual([{ attcompression: 'l' }])
+  })
+
   it('reads an audit stored whole, before the compact form existed, as it was written', async () => {
     const [row] = await database.db
       .insert(audits)
