@@ -20,16 +20,35 @@ export interface Timing {
 
 /** Runs `fn` `runs` times after `warmup` untimed runs; milliseconds. */
 export async function time(fn: () => Promise<unknown>, runs = 50, warmup = 5): Promise<Timing> {
-  for (let i = 0; i < warmup; i++) await fn()
-  const samples: number[] = []
+  const [timing] = await timeInTurn([fn], runs, warmup)
+  return timing!
+}
+
+/**
+ * Times several functions in turn (a, b, a, b, …), each `runs` times after `warmup` untimed
+ * rounds; milliseconds. A machine whose speed drifts over a minute (other guests on a shared
+ * host, a database's background work) then slows each of them alike, so the ratio of their
+ * medians measures the code rather than the moment each one happened to run at.
+ */
+export async function timeInTurn(
+  fns: readonly (() => Promise<unknown>)[],
+  runs = 50,
+  warmup = 5,
+): Promise<Timing[]> {
+  for (let i = 0; i < warmup; i++) for (const fn of fns) await fn()
+  const samples = fns.map((): number[] => [])
   for (let i = 0; i < runs; i++) {
-    const start = performance.now()
-    await fn()
-    samples.push(performance.now() - start)
+    for (const [k, fn] of fns.entries()) {
+      const start = performance.now()
+      await fn()
+      samples[k]!.push(performance.now() - start)
+    }
   }
-  samples.sort((a, b) => a - b)
-  const at = (q: number) => samples[Math.min(samples.length - 1, Math.floor(q * samples.length))]!
-  return { median: at(0.5), p95: at(0.95) }
+  return samples.map((list) => {
+    list.sort((a, b) => a - b)
+    const at = (q: number) => list[Math.min(list.length - 1, Math.floor(q * list.length))]!
+    return { median: at(0.5), p95: at(0.95) }
+  })
 }
 
 export function report(name: string, subject: Timing, baseline: Timing, baselineName: string) {
