@@ -9,6 +9,7 @@ import { ApiError } from '@/api/http'
 import { useAuditSettingsStore } from '@/stores/auditSettings'
 import RequirementProfilesView from '@/views/RequirementProfilesView.vue'
 import { clubId, mountInProviders, wait } from './audit-helpers'
+import { doubleSaltoProfile } from '../support/profiles'
 
 vi.mock('@/api/audits', async (importOriginal) => ({
   ...(await importOriginal<typeof import('@/api/audits')>()),
@@ -31,20 +32,7 @@ async function settle() {
 
 const tumblingJunior: RequirementProfileInput = {
   id: 'tumbling-junior-passes',
-  label: 'Tumbling junior passes',
-  discipline: 'tumbling',
-  apparatus: 'tumbling',
-  categories: ['junior'],
-  source: 'from memory',
-  requirements: [
-    {
-      id: 'double',
-      label: 'A double salto',
-      source: 'from memory',
-      matches: { minRotationClass: 'double' },
-      minStepIndex: 'competition-ready',
-    },
-  ],
+  ...doubleSaltoProfile('Tumbling junior passes', ['junior']),
 }
 
 /** The buttons whose text is exactly `text`, wherever they are (dialogs included). */
