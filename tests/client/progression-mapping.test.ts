@@ -32,16 +32,22 @@ describe('suggestMapping', () => {
     expect(suggestMapping(3, [null, 1, 2])).toEqual([0, 1, 2])
   })
 
-  it('follows the steps that were reordered', () => {
-    // A B C D -> A C B D
-    expect(suggestMapping(4, [0, 2, 1, 3])).toEqual([0, 2, 1, 3])
-    // A B C -> C A B
-    expect(suggestMapping(3, [2, 0, 1])).toEqual([1, 2, 0])
+  it('never puts athletes past a step they had not passed when steps are reordered', () => {
+    // A B C D -> A C B D: athletes on B had not passed C, now before B: back to A (0). Athletes
+    // on C had passed A, B and C: they continue from B (2), the last of those in the new order.
+    expect(suggestMapping(4, [0, 2, 1, 3])).toEqual([0, 0, 2, 3])
+    // A B C -> C A B: athletes on A or B had not passed C, now first: the first step is the
+    // lowest there is. Athletes on C had passed all three: the last step (2).
+    expect(suggestMapping(3, [2, 0, 1])).toEqual([0, 0, 2])
+    // A B C D -> B A C D: athletes on A had not passed B, now first; those on B had passed both.
+    expect(suggestMapping(4, [1, 0, 2, 3])).toEqual([0, 1, 2, 3])
   })
 
   it('follows a reorder and a removal together', () => {
-    // A B C D -> C A D: B was removed and goes back to A, now step 1.
-    expect(suggestMapping(4, [2, 0, 3])).toEqual([1, 1, 0, 2])
+    // A B C D -> C A D: B was removed. Athletes on A, B or C had not passed D; C is now first,
+    // so athletes on A or B get the first step, those on C had passed C and A (1), those on D
+    // everything (2).
+    expect(suggestMapping(4, [2, 0, 3])).toEqual([0, 0, 1, 2])
   })
 
   it('proposes nothing for a progression that had no steps', () => {
