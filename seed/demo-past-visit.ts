@@ -1,6 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { previousQuarter, quarterEnd, quarterOf } from '../shared/domain/quarters.ts'
-import { stepsAsOf, type TimelinePoint } from '../shared/domain/progress.ts'
+import { stepsAsOf } from '../shared/domain/pace.ts'
+import type { TimelinePoint } from '../shared/domain/progress.ts'
 import { addDaysIso, type RecommendationStatus } from '../shared/domain/visits.ts'
 import type { DbOrTx } from '../server/db/client.ts'
 import { progressRecords } from '../server/db/schema-athletes.ts'

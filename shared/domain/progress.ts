@@ -54,7 +54,7 @@ export interface ProgressRecord {
   lastEventOn: string | null
   /** The effective events in replay order: voided ones and those after `asOf` left out. */
   history: ProgressEvent[]
-  /** The record's steps at the end of each day they changed, oldest first (see {@link stepsAsOf}). */
+  /** The record's steps at the end of each day they changed, oldest first (see stepsAsOf in pace.ts). */
   timeline: TimelinePoint[]
 }
 
@@ -351,63 +351,4 @@ export function checkEvent(
 
 function capitalise(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1)
-}
-
-/**
- * The athlete's recent pace on one element: net steps gained per 30 days over the `windowDays`
- * days up to and including `asOf`.
- *
- * Net means the step as of `asOf` minus the step as of the day before the window, with never
- * started counting as one below the first step, so a down-step counts against the pace: a
- * step-down after a lost skill and the rebuild that follows add up to nothing gained. The pace is
- * negative when the athlete ended the window lower than they began it. The whole window is the
- * divisor even for an athlete who started within it, which keeps a short history from reading as
- * a fast one.
- */
-export function pace(events: readonly ProgressEvent[], asOf: string, windowDays = 180): number {
-  return timelinePace(replayRecord(events).timeline, paceWindow(asOf, windowDays))
-}
-
-/** The days a pace is measured over: the `days` days up to and including `asOf`. */
-export interface PaceWindow {
-  /** The day before the window: the step as of then is where the window starts from. */
-  before: string
-  asOf: string
-  days: number
-}
-
-export function paceWindow(asOf: string, windowDays = 180): PaceWindow {
-  return { before: addDays(asOf, -windowDays), asOf, days: windowDays }
-}
-
-/** {@link pace} from a record's timeline; the window is worked out once for many records. */
-export function timelinePace(timeline: readonly TimelinePoint[], window: PaceWindow): number {
-  if (window.days <= 0) return 0
-  const start = stepsAsOf(timeline, window.before)?.[1] ?? -1
-  const end = stepsAsOf(timeline, window.asOf)?.[1] ?? -1
-  return ((end - start) / window.days) * 30
-}
-
-/**
- * The record's steps at the end of `asOf`, from its timeline: the point with the same step and
- * highest step as `replayRecord(events, { asOf })`. Null when no step had been reached by then.
- */
-export function stepsAsOf(timeline: readonly TimelinePoint[], asOf: string): TimelinePoint | null {
-  // Timelines are short and audits mostly look at recent dates: search from the end.
-  for (let i = timeline.length - 1; i >= 0; i--) {
-    const point = timeline[i]!
-    if (point[0] <= asOf) return point
-  }
-  return null
-}
-
-/** An athlete's pace over all their elements: the sum of the pace on each element's history. */
-export function athletePace(
-  histories: Iterable<readonly ProgressEvent[]>,
-  asOf: string,
-  windowDays = 180,
-): number {
-  let total = 0
-  for (const events of histories) total += pace(events, asOf, windowDays)
-  return total
 }

@@ -1,4 +1,5 @@
-import { stepsAsOf, type TimelinePoint } from './progress.ts'
+import { stepsAsOf } from './pace.ts'
+import type { TimelinePoint } from './progress.ts'
 import { addDaysIso } from './visits.ts'
 import type { RecommendationStatus } from './visits.ts'
 

@@ -2,10 +2,10 @@
 // in, and the boundaries of the checks. All rules are the product brief's: common practice (no
 // published source); the day counts are worked by hand beside each case.
 import { describe, expect, it } from 'vitest'
+import { pace } from '../../shared/domain/pace.ts'
 import {
   checkEvent,
   compareEvents,
-  pace,
   replayRecord,
   stepOf,
   type CheckContext,

@@ -2,16 +2,12 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt'
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus'
 import { describe, expect, it } from 'vitest'
 import { safetyCaution } from '../../shared/domain/element.ts'
+import { athletePace, pace, paceWindow, stepsAsOf, timelinePace } from '../../shared/domain/pace.ts'
 import {
   addDays,
-  athletePace,
   checkEvent,
   daysBetween,
-  pace,
-  paceWindow,
   replayRecord,
-  stepsAsOf,
-  timelinePace,
   type CheckContext,
   type CheckResult,
   type ProgressChange,
@@ -465,6 +461,17 @@ describe('pace', () => {
     // 4 net steps on one element and 3 on the other: 7 / 180 × 30 = 1.1666…
     const other = [step(0, '2025-02-01'), step(1, '2025-03-01'), step(2, '2025-05-01')]
     expect(athletePace([rebuilt, other], asOf)).toBeCloseTo(7 / 6, 12)
+  })
+
+  it('gives the same pace to the last digit whatever order the elements come in', () => {
+    // Seven elements, one step each in the window: 7 / 180 × 30 = 7/6. Adding 1/6 seven times
+    // in binary floating point gives 1.166666666666667, one unit in the last place above the
+    // nearest double to 7/6 (IEEE 754: each addition rounds); the net steps are added as whole
+    // numbers and divided once, so the answer is 7/6 as one division gives it, in any order.
+    const one = (k: number) => [step(0, `2025-03-0${k + 1}`)]
+    const seven = [0, 1, 2, 3, 4, 5, 6].map(one)
+    expect(athletePace(seven, asOf)).toBe(7 / 6)
+    expect(athletePace([...seven].reverse(), asOf)).toBe(7 / 6)
   })
 })
 
