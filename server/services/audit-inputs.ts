@@ -11,17 +11,16 @@ import type {
   AuditRecord,
   RequirementProfile,
 } from '../../shared/domain/audit/types.ts'
-import {
-  paceWindow,
-  stepsAsOf,
-  timelinePace,
-  type TimelinePoint,
-} from '../../shared/domain/progress.ts'
+import { netSteps, paceOf, paceWindow, stepsAsOf } from '../../shared/domain/pace.ts'
+import type { TimelinePoint } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
 import { elements, elementSteps } from '../db/schema-catalogue.ts'
 import { replayedTimeline } from './progress-records.ts'
+
+/** Cursors opened by this process so far, for their names. */
+let cursorCount = 0
 
 /** Records one read of the cursor brings: about 200 athletes' worth. */
 const defaultRecordsPerRead = 20_000
@@ -107,7 +106,7 @@ export async function gatherInputs(
   asOf: string,
   { recordsPerRead = defaultRecordsPerRead }: { recordsPerRead?: number } = {},
 ): Promise<AuditInputs> {
-  if (!Number.isInteger(recordsPerRead) || recordsPerRead < 1) {
+  if (!Number.isSafeInteger(recordsPerRead) || recordsPerRead < 1) {
     throw new RangeError(`recordsPerRead must be a whole number of at least 1: ${recordsPerRead}`)
   }
   const inRoster = and(
@@ -131,12 +130,16 @@ export async function gatherInputs(
   const thresholds = await clubAgeThresholds(db, clubId)
 
   const records: AuditRecord[] = []
-  const paces: Record<string, number> = {}
+  // Whole steps per athlete, turned into paces once all are in: the same paces, to the last
+  // digit, whatever order the rows come in (they are part of the input hash).
+  const net = new Map<string, number>()
   const window = paceWindow(asOf)
-  await readRecords(db, clubId, inRoster, recordsPerRead, async (rows) => {
+  await readRecords(db, clubId, inRoster, recordsPerRead, async (rows, tx) => {
     for (const row of rows) {
+      // Replayed on the cursor's own connection: in its snapshot, and without asking the pool
+      // for a second connection while this one is held.
       const timeline =
-        row.timeline ?? (await replayedTimeline(db, clubId, row.athlete_id, row.element_id))
+        row.timeline ?? (await replayedTimeline(tx, clubId, row.athlete_id, row.element_id))
       const reached = stepsAsOf(timeline, asOf)
       if (reached === null) continue
       records.push({
@@ -144,9 +147,11 @@ export async function gatherInputs(
         elementId: row.element_id,
         stepIndex: reached[2],
       })
-      paces[row.athlete_id] = (paces[row.athlete_id] ?? 0) + timelinePace(timeline, window)
+      net.set(row.athlete_id, (net.get(row.athlete_id) ?? 0) + netSteps(timeline, window))
     }
   })
+  const paces: Record<string, number> = {}
+  for (const [athleteId, steps] of net) paces[athleteId] = paceOf(steps, window)
   return {
     asOf,
     elements: catalogue,
@@ -195,12 +200,20 @@ async function readRecords(
   clubId: string,
   inRoster: SQL | undefined,
   recordsPerRead: number,
-  take: (rows: RecordRow[]) => Promise<void>,
+  take: (rows: RecordRow[], tx: DbOrTx) => Promise<void>,
 ) {
   await db.transaction(async (tx) => {
     // The whole result is wanted: plan for all its rows, not the first tenth a cursor's plan
     // favours by default (a plan that starts fast and reads the table in key order, slower).
-    await tx.execute(sql`set local cursor_tuple_fraction = 1`)
+    // Put back afterwards: in a caller's transaction the setting would outlive this savepoint.
+    const { rows: settings } = await tx.execute<{ previous: string }>(
+      sql`select current_setting('cursor_tuple_fraction') as previous`,
+    )
+    await tx.execute(sql`select set_config('cursor_tuple_fraction', '1', true)`)
+    // A name of its own (a counter, never anything a person typed): the caller's transaction may
+    // hold cursors of its own. Gathers sharing one transaction still run one after another, as
+    // every query on its one connection does.
+    const cursor = `audit_records_${++cursorCount}`
     const query = tx
       .select({
         athleteId: progressRecords.athleteId,
@@ -216,15 +229,18 @@ async function readRecords(
         ),
       )
       .where(and(eq(progressRecords.clubId, clubId), inRoster))
-    await tx.execute(sql`declare audit_records no scroll cursor for ${query}`)
-    // FETCH takes its count as a literal; recordsPerRead is a checked whole number.
-    const fetch = sql.raw(`fetch ${recordsPerRead} from audit_records`)
+    await tx.execute(sql`declare ${sql.identifier(cursor)} no scroll cursor for ${query}`)
+    // FETCH takes its count as a literal; recordsPerRead is a checked safe whole number.
+    const fetch = sql`fetch ${sql.raw(String(recordsPerRead))} from ${sql.identifier(cursor)}`
     for (;;) {
       const { rows }: { rows: unknown[] } = await tx.execute(fetch)
-      await take(rows as RecordRow[])
+      await take(rows as RecordRow[], tx)
       if (rows.length < recordsPerRead) break
       await yieldToOthers()
     }
-    await tx.execute(sql`close audit_records`)
+    await tx.execute(sql`close ${sql.identifier(cursor)}`)
+    await tx.execute(
+      sql`select set_config('cursor_tuple_fraction', ${settings[0]!.previous}, true)`,
+    )
   })
 }

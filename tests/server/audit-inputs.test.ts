@@ -78,6 +78,9 @@ async function inputsFor(athleteId: string, asOf: string) {
 
 describe('the audit’s inputs as of a date', () => {
   it('reads each element as the catalogue shows it, with the length of its progression', async () => {
+    // Another club with the same standard catalogue: none of its elements, counterparts or
+    // steps may enter this club's inputs.
+    await clubWithPeople(database.db, 'inputs-other')
     // One element whose progression was never stored (a new element gets its template's steps,
     // so the rows are removed here): it counts as one step.
     const bare = await createElement(database.db, access(), {

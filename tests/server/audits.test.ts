@@ -157,15 +157,27 @@ describe('running an audit', () => {
     ])
   })
 
-  it('compresses stored results with lz4, quicker to write than the default', async () => {
+  it('compresses stored results with lz4 where the server has it, quicker to write than pglz', async () => {
     // PostgreSQL 15 manual, ALTER TABLE … SET COMPRESSION: 'l' in pg_attribute.attcompression
-    // is lz4, 'p' pglz and '' the server's default (pglz unless default_toast_compression says
-    // otherwise).
+    // is lz4, 'p' pglz and '' the server's default. A server built without lz4 refuses it as a
+    // setting too, and then the migration leaves the default.
+    const client = await database.pool.connect()
+    let hasLz4 = true
+    try {
+      await client.query(`set default_toast_compression = 'lz4'`)
+    } catch {
+      hasLz4 = false
+    } finally {
+      await client.query('reset default_toast_compression').catch(() => undefined)
+      client.release()
+    }
     const { rows } = await database.pool.query<{ attcompression: string }>(
       `select attcompression from pg_attribute
         where attrelid = 'audits'::regclass and attname = 'result'`,
     )
-    expect(rows).toEqual([{ attcompression: 'l' }])
+    expect(rows).toHaveLength(1)
+    if (hasLz4) expect(rows[0]!.attcompression).toBe('l')
+    else expect(['', 'p']).toContain(rows[0]!.attcompression)
   })
 
   it('reads an audit stored whole, before the compact form existed, as it was written', async () => {
