@@ -3,7 +3,6 @@
 // speed matters (see bench/audit.bench.ts).
 
 import { and, asc, eq, isNull, sql, type SQL } from 'drizzle-orm'
-import { alias } from 'drizzle-orm/pg-core'
 import { defaultAgeThresholds, type AgeThresholdTable } from '../../shared/domain/age-categories.ts'
 import type {
   AuditElement,
@@ -16,7 +15,8 @@ import type { TimelinePoint } from '../../shared/domain/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
-import { elements, elementSteps } from '../db/schema-catalogue.ts'
+import { elements } from '../db/schema-catalogue.ts'
+import { counterpart, counterpartOfElement, progressionLength } from './catalogue-columns.ts'
 import { replayedTimeline } from './progress-records.ts'
 
 /** Cursors opened by this process so far, for their names. */
@@ -56,8 +56,6 @@ export async function clubAgeThresholds(db: DbOrTx, clubId: string): Promise<Age
   return table
 }
 
-const counterpart = alias(elements, 'counterpart')
-
 /**
  * The catalogue as the audit sees it, in one query: each element's classification as stored
  * (derived on every write, the columns the catalogue's filters use too), its counterpart found by
@@ -66,7 +64,6 @@ const counterpart = alias(elements, 'counterpart')
  * longer than reading them.
  */
 export async function auditCatalogue(db: DbOrTx, clubId: string): Promise<AuditElement[]> {
-  const stepCount = sql<number>`(select coalesce(max(${elementSteps.position}) + 1, 1)::int from ${elementSteps} where ${elementSteps.clubId} = ${elements.clubId} and ${elementSteps.elementId} = ${elements.id})`
   return db
     .select({
       id: elements.id,
@@ -76,16 +73,10 @@ export async function auditCatalogue(db: DbOrTx, clubId: string): Promise<AuditE
       rotationClass: elements.rotationClass,
       twistBand: elements.twistBand,
       counterpartId: counterpart.id,
-      stepCount,
+      stepCount: progressionLength(1),
     })
     .from(elements)
-    .leftJoin(
-      counterpart,
-      and(
-        eq(counterpart.clubId, elements.clubId),
-        eq(counterpart.descriptionKey, elements.counterpartKey),
-      ),
-    )
+    .leftJoin(counterpart, counterpartOfElement)
     .where(eq(elements.clubId, clubId))
 }
 

@@ -8,6 +8,7 @@ import type { DbOrTx } from '../db/client.ts'
 import { progressEvents } from '../db/schema-athletes.ts'
 import { elementPrerequisites, elements, elementSteps } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
+import { counterpart, counterpartOfElement } from './catalogue-columns.ts'
 
 // The catalogue's reads: elements with their counterparts, one element with its steps and
 // prerequisites, and the mappings from an element's description and its steps to their stored
@@ -64,20 +65,12 @@ function toApi(row: ElementRow, counterpartId: string | null): CatalogueElement 
   return { ...input, ...derived, id: row.id, clubId: row.clubId, counterpartId }
 }
 
-const counterpart = alias(elements, 'counterpart')
-
 /** Elements with their counterpart found by key in SQL: one query, any filter. */
 export async function selectElements(db: DbOrTx, clubId: string, where: SQL[] = []) {
   const rows = await db
     .select({ element: elements, counterpartId: counterpart.id })
     .from(elements)
-    .leftJoin(
-      counterpart,
-      and(
-        eq(counterpart.clubId, elements.clubId),
-        eq(counterpart.descriptionKey, elements.counterpartKey),
-      ),
-    )
+    .leftJoin(counterpart, counterpartOfElement)
     .where(and(eq(elements.clubId, clubId), ...where))
     .orderBy(asc(elements.apparatus), asc(elements.quarterRotations), asc(elements.name))
   return rows.map((r) => toApi(r.element, r.counterpartId))

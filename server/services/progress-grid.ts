@@ -1,19 +1,17 @@
 // The squad grid: athletes × elements, each cell the step reached. It is the screen a coach keeps
 // open on the floor, so it reads only what it shows, all at once (bench/grid.bench.ts).
 
-import { and, asc, eq, sql, type SQL } from 'drizzle-orm'
-import { alias } from 'drizzle-orm/pg-core'
+import { and, asc, eq, type SQL } from 'drizzle-orm'
 import { figNotation } from '../../shared/domain/catalogue.ts'
 import type { RotationClass } from '../../shared/domain/element.ts'
 import type { Grid } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords } from '../db/schema-athletes.ts'
-import { elementSteps, elements } from '../db/schema-catalogue.ts'
+import { elements } from '../db/schema-catalogue.ts'
 import { squadRoster } from './athletes.ts'
+import { counterpart, counterpartOfElement, progressionLength } from './catalogue-columns.ts'
 import { assertCanReadSquad } from './scope.ts'
-
-const counterpart = alias(elements, 'counterpart')
 
 /**
  * The columns of the grid: the catalogue's elements (in the catalogue's order, filtered as
@@ -39,16 +37,10 @@ function gridElements(
       twists: elements.twists,
       shape: elements.shape,
       counterpartId: counterpart.id,
-      stepCount: sql<number>`(select coalesce(max(${elementSteps.position}) + 1, 0)::int from ${elementSteps} where ${elementSteps.clubId} = ${elements.clubId} and ${elementSteps.elementId} = ${elements.id})`,
+      stepCount: progressionLength(0),
     })
     .from(elements)
-    .leftJoin(
-      counterpart,
-      and(
-        eq(counterpart.clubId, elements.clubId),
-        eq(counterpart.descriptionKey, elements.counterpartKey),
-      ),
-    )
+    .leftJoin(counterpart, counterpartOfElement)
     .where(and(...where))
     .orderBy(asc(elements.apparatus), asc(elements.quarterRotations), asc(elements.name))
 }
