@@ -6,6 +6,7 @@ import { createElement } from '../server/services/catalogue-writes.ts'
 import { createClub } from '../server/services/clubs.ts'
 import { addMembership, createUser } from '../server/services/members.ts'
 import { appendHistory, type HistoryEvent } from '../server/services/progress-history.ts'
+import { athleteOfRecord } from '../server/services/progress-records.ts'
 import { squadGrid } from '../server/services/progress-grid.ts'
 import { createSquad } from '../server/services/squads.ts'
 import { report, time, withBenchDatabase } from './harness.ts'
@@ -75,13 +76,7 @@ export default async function gridBench() {
             flagged: progressRecords.flagged,
           })
           .from(progressRecords)
-          .innerJoin(
-            athletes,
-            and(
-              eq(athletes.clubId, progressRecords.clubId),
-              eq(athletes.id, progressRecords.athleteId),
-            ),
-          )
+          .innerJoin(athletes, athleteOfRecord)
           .where(and(eq(progressRecords.clubId, club.id), eq(athletes.squadId, squad.id))),
       60,
     )

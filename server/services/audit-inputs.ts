@@ -17,7 +17,7 @@ import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { ageThresholds, requirementProfiles } from '../db/schema-audits.ts'
 import { elements } from '../db/schema-catalogue.ts'
 import { counterpart, counterpartOfElement, progressionLength } from './catalogue-columns.ts'
-import { replayedTimeline } from './progress-records.ts'
+import { athleteOfRecord, replayedTimeline } from './progress-records.ts'
 
 /** Cursors opened by this process so far, for their names. */
 let cursorCount = 0
@@ -212,13 +212,7 @@ async function readRecords(
         timeline: progressRecords.timeline,
       })
       .from(progressRecords)
-      .innerJoin(
-        athletes,
-        and(
-          eq(athletes.clubId, progressRecords.clubId),
-          eq(athletes.id, progressRecords.athleteId),
-        ),
-      )
+      .innerJoin(athletes, athleteOfRecord)
       .where(and(eq(progressRecords.clubId, clubId), inRoster))
     await tx.execute(sql`declare ${sql.identifier(cursor)} no scroll cursor for ${query}`)
     // FETCH takes its count as a literal; recordsPerRead is a checked safe whole number.

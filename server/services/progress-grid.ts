@@ -11,6 +11,7 @@ import { athletes, progressRecords } from '../db/schema-athletes.ts'
 import { elements } from '../db/schema-catalogue.ts'
 import { squadRoster } from './athletes.ts'
 import { counterpart, counterpartOfElement, progressionLength } from './catalogue-columns.ts'
+import { athleteOfRecord } from './progress-records.ts'
 import { assertCanReadSquad } from './scope.ts'
 
 /**
@@ -70,13 +71,7 @@ export async function squadGrid(
         flagged: progressRecords.flagged,
       })
       .from(progressRecords)
-      .innerJoin(
-        athletes,
-        and(
-          eq(athletes.clubId, progressRecords.clubId),
-          eq(athletes.id, progressRecords.athleteId),
-        ),
-      )
+      .innerJoin(athletes, athleteOfRecord)
       .where(and(eq(progressRecords.clubId, access.clubId), eq(athletes.squadId, squadId))),
   ])
   const byId = new Map(list.map((e) => [e.id, e]))

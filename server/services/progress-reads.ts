@@ -9,7 +9,7 @@ import { users } from '../db/schema-accounts.ts'
 import { athletes, progressEvents, progressRecords, squads } from '../db/schema-athletes.ts'
 import { elementSteps } from '../db/schema-catalogue.ts'
 import { listElements } from './catalogue.ts'
-import { elementContext, recordView, toDomainEvent } from './progress-records.ts'
+import { athleteOfRecord, elementContext, recordView, toDomainEvent } from './progress-records.ts'
 import { assertCanReadSquad, athleteInScope, readableSquadIds } from './scope.ts'
 
 export async function recordDetail(
@@ -124,13 +124,7 @@ export async function missingSkills(
         squadName: squads.name,
       })
       .from(progressRecords)
-      .innerJoin(
-        athletes,
-        and(
-          eq(athletes.clubId, progressRecords.clubId),
-          eq(athletes.id, progressRecords.athleteId),
-        ),
-      )
+      .innerJoin(athletes, athleteOfRecord)
       .innerJoin(squads, and(eq(squads.clubId, athletes.clubId), eq(squads.id, athletes.squadId)))
       .where(
         and(

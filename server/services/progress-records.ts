@@ -7,9 +7,15 @@ import {
 import { translateStepIndex } from '../../shared/domain/step-versions.ts'
 import type { RecordView } from '../../shared/schemas/progress.ts'
 import type { DbOrTx } from '../db/client.ts'
-import { progressEvents, progressRecords } from '../db/schema-athletes.ts'
+import { athletes, progressEvents, progressRecords } from '../db/schema-athletes.ts'
 import { elements, elementStepMaps, elementSteps } from '../db/schema-catalogue.ts'
 import { notFound } from '../http/errors.ts'
+
+/** Joins a progress record to its athlete, within the record's club. */
+export const athleteOfRecord = and(
+  eq(athletes.clubId, progressRecords.clubId),
+  eq(athletes.id, progressRecords.athleteId),
+)
 
 /**
  * Progress records: an element's steps as events are read through, the replay of an athlete's
