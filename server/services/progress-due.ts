@@ -4,6 +4,7 @@ import type { DueAthlete } from '../../shared/schemas/progress.ts'
 import type { ClubAccess } from '../auth/club-access.ts'
 import type { DbOrTx } from '../db/client.ts'
 import { athletes, progressRecords, squads } from '../db/schema-athletes.ts'
+import { athleteOfRecord } from './progress-records.ts'
 import { readableSquadIds } from './scope.ts'
 
 /**
@@ -28,10 +29,7 @@ export async function progressDue(
     })
     .from(athletes)
     .innerJoin(squads, and(eq(squads.clubId, athletes.clubId), eq(squads.id, athletes.squadId)))
-    .leftJoin(
-      progressRecords,
-      and(eq(progressRecords.clubId, athletes.clubId), eq(progressRecords.athleteId, athletes.id)),
-    )
+    .leftJoin(progressRecords, athleteOfRecord)
     .where(
       and(
         eq(athletes.clubId, access.clubId),
