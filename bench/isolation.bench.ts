@@ -1,11 +1,11 @@
 import { spawn } from 'node:child_process'
 import { setPriority } from 'node:os'
-import { performance } from 'node:perf_hooks'
 import { and, eq } from 'drizzle-orm'
 import { hashPassword } from '../server/auth/password.ts'
 import { users } from '../server/db/schema-accounts.ts'
 import { auditRuns } from '../server/db/schema-audits.ts'
 import { auditBenchAsOf, buildAuditClub } from './audit.bench.ts'
+import { clock } from './clock.ts'
 import { withBenchDatabase } from './harness.ts'
 import {
   appEnvironment,
@@ -68,15 +68,15 @@ export default async function isolationBench() {
     try {
       const cookie = await sessionCookie(web.url, 'audit@bench.invalid', password)
 
-      const checks = paced(`${web.url}/api/health`, perSecond)
+      const checks = await paced(`${web.url}/api/health`, perSecond)
       await sleep(3000)
       // Idle stretches and audits take turns, so that both see the same weather on the machine.
       const idle: Window[] = []
       const busy: Window[] = []
       for (let i = 0; i < audits; i++) {
-        const from = performance.now()
+        const from = clock()
         await sleep(idleMs)
-        idle.push({ from, to: performance.now() })
+        idle.push({ from, to: clock() })
         const res = await fetch(`${web.url}/api/clubs/${access.clubId}/audits`, {
           method: 'POST',
           headers: { 'content-type': 'application/json', cookie },
@@ -90,10 +90,10 @@ export default async function isolationBench() {
             .select({ status: auditRuns.status, phase: auditRuns.phase })
             .from(auditRuns)
             .where(and(eq(auditRuns.clubId, access.clubId), eq(auditRuns.id, id)))
-          if (!started && run!.phase !== 'queued') started = performance.now()
+          if (!started && run!.phase !== 'queued') started = clock()
           if (run!.status === 'failed') throw new Error('the audit failed')
           if (run!.status === 'done') {
-            busy.push({ from: started, to: performance.now() })
+            busy.push({ from: started, to: clock() })
             break
           }
           await sleep(20)
@@ -107,9 +107,9 @@ export default async function isolationBench() {
       const control: Window[] = []
       const controlIdle: Window[] = []
       for (const w of busy) {
-        const from = performance.now()
+        const from = clock()
         await sleep(idleMs)
-        controlIdle.push({ from, to: performance.now() })
+        controlIdle.push({ from, to: clock() })
         // The loop ends by itself shortly after its stretch, should this process die first.
         const loop = spawn(process.execPath, ['-e', spinner(w.to - w.from + 1000)], {
           stdio: ['ignore', 'ignore', 'inherit'],
@@ -119,9 +119,9 @@ export default async function isolationBench() {
         try {
           // Lowered from here too, so that it is low from its first instant.
           if (loop.pid) setPriority(loop.pid, 19)
-          const started = performance.now()
+          const started = clock()
           await sleep(w.to - w.from)
-          control.push({ from: started, to: performance.now() })
+          control.push({ from: started, to: clock() })
         } finally {
           loop.kill('SIGKILL')
         }

@@ -1,10 +1,9 @@
-import { spawn } from 'node:child_process'
-import http from 'node:http'
-import { performance } from 'node:perf_hooks'
+import { fork, spawn } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import autocannon from 'autocannon'
 import type pg from 'pg'
 import { freePort } from '../server/cli/postgres.ts'
+import type { PacedResponse } from './clock.ts'
 
 /**
  * A GET path of the bare server and the statements it runs, in order, for each request; a
@@ -189,57 +188,40 @@ export function reportRates(
 }
 
 export interface Paced {
-  /**
-   * Each response: when it arrived (performance.now()), how long it took (ms), its status (0 and
-   * the error's code when there was none).
-   */
-  responses: { at: number; ms: number; status: number; error?: string }[]
+  /** Each response (see `PacedResponse`), once `stop()` has resolved; empty before. */
+  responses: PacedResponse[]
   /** Stops sending and resolves once every request sent has been answered. */
   stop(): Promise<void>
 }
 
 /**
- * GETs `url` at a steady `perSecond`, each request sent on time whether or not the earlier ones
- * were answered (so a stall shows in the latencies instead of slowing the sender down), over
- * kept-alive connections.
+ * GETs `url` at a steady `perSecond` from a process of its own (paced-child.ts), each request
+ * sent on time whether or not the earlier ones were answered (so a stall shows in the latencies
+ * instead of slowing the sender down), over kept-alive connections. Resolves once it sends.
+ * Responses are timed on `clock()`, so windows of this process compare with them.
  */
-export function paced(url: string, perSecond: number): Paced {
-  const agent = new http.Agent({ keepAlive: true, maxSockets: 64 })
-  const responses: Paced['responses'] = []
-  const pending = new Set<Promise<void>>()
-  const send = () => {
-    const start = performance.now()
-    const done = new Promise<void>((resolve) => {
-      const attempt = () => {
-        const req = http.get(url, { agent }, (res) => {
-          res.resume()
-          res.on('end', () => {
-            const at = performance.now()
-            responses.push({ at, ms: at - start, status: res.statusCode ?? 0 })
-            resolve()
-          })
-        })
-        req.on('error', (err: NodeJS.ErrnoException) => {
-          // A kept-alive socket the server closed as the request went out: sent again on a new
-          // one, as browsers do, and timed from the first send.
-          if (req.reusedSocket && err.code === 'ECONNRESET') return attempt()
-          const at = performance.now()
-          responses.push({ at, ms: at - start, status: 0, error: err.code ?? err.message })
-          resolve()
-        })
-      }
-      attempt()
-    })
-    pending.add(done)
-    void done.then(() => pending.delete(done))
-  }
-  const timer = setInterval(send, 1000 / perSecond)
+export async function paced(url: string, perSecond: number): Promise<Paced> {
+  const child = fork(
+    fileURLToPath(new URL('./paced-child.ts', import.meta.url)),
+    [url, String(perSecond)],
+    {
+      execArgv: ['--import', 'tsx'],
+      stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+    },
+  )
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()))
+  await new Promise<void>((resolve, reject) => {
+    child.once('message', () => resolve())
+    child.once('exit', (code) => reject(new Error(`the paced sender exited (${code})`)))
+  })
+  const responses: PacedResponse[] = []
   return {
     responses,
     async stop() {
-      clearInterval(timer)
-      await Promise.all(pending)
-      agent.destroy()
+      const answered = new Promise<PacedResponse[]>((resolve) => child.once('message', resolve))
+      child.send('stop')
+      responses.push(...(await answered))
+      await exited
     },
   }
 }
@@ -253,7 +235,7 @@ export function percentile(samples: number[], q: number) {
 /** The 99th percentile of `samples`. */
 export const p99 = (samples: number[]) => percentile(samples, 0.99)
 
-/** A stretch of a benchmark run, in performance.now() milliseconds. */
+/** A stretch of a benchmark run, on `clock()`. */
 export interface Window {
   from: number
   to: number

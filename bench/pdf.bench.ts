@@ -1,10 +1,10 @@
-import { performance } from 'node:perf_hooks'
 import { eq, sql } from 'drizzle-orm'
 import { clubs, users } from '../server/db/schema-accounts.ts'
 import { audits } from '../server/db/schema-audits.ts'
 import { runAndStore } from '../server/services/audits.ts'
 import type { ReportPdfJob } from '../shared/schemas/report-pdfs.ts'
 import { demoPassword, seedDemo } from '../seed/demo.ts'
+import { clock } from './clock.ts'
 import { withBenchDatabase } from './harness.ts'
 import {
   appEnvironment,
@@ -59,7 +59,7 @@ export default async function pdfBench() {
     const worker = await startWorker(env, web.url)
     try {
       const base = `${web.url}/api/clubs/${club!.id}`
-      const checks = paced(`${web.url}/api/health`, perSecond)
+      const checks = await paced(`${web.url}/api/health`, perSecond)
       await sleep(3000)
       const idle: Window[] = []
       const busy: Window[] = []
@@ -67,13 +67,13 @@ export default async function pdfBench() {
       let sizes = 0
       for (const email of askers) {
         const cookie = await sessionCookie(web.url, email, demoPassword)
-        const from = performance.now()
+        const from = clock()
         await sleep(idleMs)
-        idle.push({ from, to: performance.now() })
-        const started = performance.now()
+        idle.push({ from, to: clock() })
+        const started = clock()
         await Promise.all(
           auditIds.map(async (auditId) => {
-            const asked = performance.now()
+            const asked = clock()
             const res = await fetch(`${base}/audits/${auditId}/report-pdfs`, {
               method: 'POST',
               headers: { cookie },
@@ -93,10 +93,10 @@ export default async function pdfBench() {
             const bytes = Buffer.from(await pdf.arrayBuffer())
             if (bytes.subarray(0, 5).toString('latin1') !== '%PDF-') throw new Error('not a PDF')
             sizes += bytes.length
-            waits.push(performance.now() - asked)
+            waits.push(clock() - asked)
           }),
         )
-        busy.push({ from: started, to: performance.now() })
+        busy.push({ from: started, to: clock() })
         await sleep(500)
       }
       await checks.stop()
