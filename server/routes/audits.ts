@@ -93,9 +93,11 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
         const { id } = idParams.parse(req.params)
         const name = await clubName(req.club.clubId)
         // Publishing and the board's notices commit together: no notice without the audit
-        // published, no published audit without its notices on their way.
-        const notified = await ctx.db.transaction(async (tx) => {
-          const row = await publish(tx, req.club, id)
+        // published, no published audit without its notices on their way. Asked again (a retry,
+        // a second tab), it answers the audit as published and tells nobody a second time.
+        const outcome = await ctx.db.transaction(async (tx) => {
+          const { row, newly } = await publish(tx, req.club, id)
+          if (!newly) return { notified: 0, alreadyPublished: true }
           const board = await tx
             .select({ email: users.email, name: users.name })
             .from(memberships)
@@ -115,9 +117,9 @@ export function auditRoutes(ctx: AppContext): ClubRoute[] {
               ].join('\n'),
             })
           }
-          return board.length
+          return { notified: board.length, alreadyPublished: false }
         })
-        res.json({ ...(await getReport(ctx.db, req.club, id)).audit, notified })
+        res.json({ ...(await getReport(ctx.db, req.club, id)).audit, ...outcome })
       },
     },
     {

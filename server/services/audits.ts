@@ -297,15 +297,19 @@ export async function recheck(db: DbOrTx, access: ClubAccess, id: string) {
   return { inputHash: row.inputHash, currentHash: hash, unchanged: hash === row.inputHash }
 }
 
+/**
+ * Publishes the audit to the board. Publishing is idempotent: an audit published already stays
+ * as it was and answers `newly: false`. Of two publishes at once, only one changes the row (its
+ * update waits for the other's and finds the audit published), so the board is told once.
+ */
 export async function publish(db: DbOrTx, access: ClubAccess, id: string) {
   const row = await auditSummaryRow(db, access.clubId, id)
-  if (row.publishedAt)
-    throw new AppError(409, 'already_published', 'This audit is already published.')
-  await db
+  const changed = await db
     .update(audits)
     .set({ publishedAt: new Date(), publishedBy: access.userId })
-    .where(and(eq(audits.clubId, access.clubId), eq(audits.id, id)))
-  return row
+    .where(and(eq(audits.clubId, access.clubId), eq(audits.id, id), isNull(audits.publishedAt)))
+    .returning({ id: audits.id })
+  return { row, newly: changed.length > 0 }
 }
 
 /**

@@ -21,7 +21,11 @@ export interface AuditRecheck {
   unchanged: boolean
 }
 
-export type PublishedAudit = AuditSummary & { notified: number }
+/**
+ * What publishing answers: the audit, how many board members were e-mailed, and whether it was
+ * published already (asked again, it stays as it was and nobody is e-mailed twice).
+ */
+export type PublishedAudit = AuditSummary & { notified: number; alreadyPublished: boolean }
 
 /** A squad as the run form needs it; the audit feature reads nothing else of a squad. */
 export interface AuditScopeSquad {

@@ -62,15 +62,18 @@ export const useAuditReportStore = defineStore('auditReport', () => {
 
   /**
    * Publishes the audit to the board (directors) and resolves with how many board members were
-   * e-mailed. Lets the ApiError through (409 when it is already published).
+   * e-mailed and whether it had been published already (nobody is e-mailed twice).
    */
   async function publish(clubId: string) {
-    if (!report.value) return 0
+    if (!report.value) return { notified: 0, alreadyPublished: false }
     publishing.value = true
     try {
-      const { notified, ...audit } = await api.publishAudit(clubId, report.value.audit.id)
+      const { notified, alreadyPublished, ...audit } = await api.publishAudit(
+        clubId,
+        report.value.audit.id,
+      )
       report.value = { ...report.value, audit }
-      return notified
+      return { notified, alreadyPublished }
     } finally {
       publishing.value = false
     }

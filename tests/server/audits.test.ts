@@ -3,6 +3,7 @@ import { and, eq, inArray } from 'drizzle-orm'
 import request from 'supertest'
 import type TestAgent from 'supertest/lib/agent.js'
 import type { Database } from '../../server/db/client.ts'
+import { mailOutbox } from '../../server/db/schema-accounts.ts'
 import { audits } from '../../server/db/schema-audits.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { appendHistory } from '../../server/services/progress-history.ts'
@@ -315,6 +316,15 @@ describe('running an audit', () => {
   })
 })
 
+/** The notices queued for the board member about the audit as of `asOf`. */
+async function boardNotices(asOf: string) {
+  const rows = await database.db
+    .select({ subject: mailOutbox.subject })
+    .from(mailOutbox)
+    .where(eq(mailOutbox.to, fx.people.board.email))
+  return rows.filter((r) => r.subject.endsWith(`the audit as of ${asOf} is ready`)).length
+}
+
 describe('publishing and the board', () => {
   it('e-mails the board a notice with a link, and the board sees aggregates only', async () => {
     const report = await runAudit({ squadId: null, asOf: '2026-06-30' })
@@ -323,13 +333,34 @@ describe('publishing and the board', () => {
     const mail = await t.mailer.fake!.waitFor(fx.people.board.email)
     expect(mail.subject).toContain('the audit as of 2026-06-30 is ready')
     expect(mail.text).toMatch(/http:\/\/127\.0\.0\.1:\d+\/board/)
-    await director.post(`${base}/audits/${report.audit.id}/publish`).expect(409)
+    // Asked again (a retry after a lost answer): the audit as published, nobody e-mailed twice.
+    const again = await director.post(`${base}/audits/${report.audit.id}/publish`).expect(200)
+    expect(again.body).toMatchObject({
+      id: report.audit.id,
+      publishedAt: published.body.publishedAt,
+      notified: 0,
+      alreadyPublished: true,
+    })
+    expect(await boardNotices(report.audit.asOf)).toBe(1)
 
     const summary = (await board.get(`${base}/board-summary`).expect(200)).body as BoardSummary
     expect(summary.latest?.clubFrontLag).toBeCloseTo(2 / 3, 10)
     expect(summary.latest?.squads).toEqual([
       { name: 'Squad A', frontLag: expect.any(Number), athleteCount: 2 },
     ])
+  })
+
+  it('publishes once and tells the board once when two publishes arrive together', async () => {
+    // The date of the audits around it, so that the board's trend stays as they expect it.
+    const report = await runAudit({ squadId: null, asOf: '2026-06-30' })
+    const before = await boardNotices('2026-06-30')
+    const [first, second] = await Promise.all(
+      [0, 1].map(() => director.post(`${base}/audits/${report.audit.id}/publish`).expect(200)),
+    )
+    const outcomes = [first!.body.alreadyPublished, second!.body.alreadyPublished].sort()
+    expect(outcomes).toEqual([false, true])
+    expect(first!.body.publishedAt).toBe(second!.body.publishedAt)
+    expect((await boardNotices('2026-06-30')) - before).toBe(1)
   })
 
   it('shows the board one point per date when an audit of the same day is published again', async () => {
