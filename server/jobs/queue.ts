@@ -40,6 +40,13 @@ export const archiveTimeoutSeconds = 30 * 60
 export const reportPdfTimeoutSeconds = 120
 
 /**
+ * How long a mail job may run before another worker takes it over: three times the longest a
+ * send may take (`mailSendLimitMs`, server/mail/mailer.ts), so that it never happens while the
+ * first send still runs.
+ */
+export const mailJobExpirySeconds = 135
+
+/**
  * Retries with back-off: an audit, an archive or a PDF report a few times; mail for about a day while SMTP is
  * down.
  */
@@ -51,7 +58,12 @@ export function queueOptions(settings: JobSettings) {
       retryBackoff: true,
       expireInSeconds: settings.auditTimeoutSeconds,
     },
-    [queues.mail]: { retryLimit: 14, retryDelay: 15, retryBackoff: true, expireInSeconds: 60 },
+    [queues.mail]: {
+      retryLimit: 14,
+      retryDelay: 15,
+      retryBackoff: true,
+      expireInSeconds: mailJobExpirySeconds,
+    },
     [queues.clubArchive]: {
       retryLimit: 2,
       retryDelay: 10,

@@ -21,6 +21,19 @@ export interface Mailer {
   close(): Promise<void>
 }
 
+/**
+ * How long a send waits on the provider (ms): to connect, for its greeting, and through any
+ * silence on the socket; the defaults are minutes. Settings in `SMTP_URL`'s query win.
+ */
+const smtpTimeouts = { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 }
+
+/**
+ * The most one send may take, whatever the provider does (ms). Well under the mail job's expiry
+ * (`mailJobExpirySeconds`), so a send has always ended before another worker may take the job
+ * over: a message is never handed to the provider twice by two workers at once.
+ */
+export const mailSendLimitMs = 45_000
+
 /** Mail over SMTP: to `SMTP_URL` when set, else to a local fake server started here. */
 export async function createMailer(
   env: Pick<Env, 'SMTP_URL' | 'MAIL_FROM' | 'NODE_ENV' | 'MAIL_VIEWER_PORT'>,
@@ -32,8 +45,9 @@ export async function createMailer(
   const fake = env.SMTP_URL ? undefined : await startFakeSmtp()
   const viewer = fake ? await startMailViewer(fake, env.MAIL_VIEWER_PORT) : undefined
   const transport = env.SMTP_URL
-    ? nodemailer.createTransport(env.SMTP_URL)
+    ? nodemailer.createTransport({ url: env.SMTP_URL, ...smtpTimeouts })
     : nodemailer.createTransport({
+        ...smtpTimeouts,
         host: '127.0.0.1',
         port: fake!.port,
         secure: false,
@@ -50,6 +64,7 @@ export async function createMailer(
         subject: mail.subject,
         text: mail.text,
         messageId: mail.messageId,
+        signal: AbortSignal.timeout(mailSendLimitMs),
       })
       logger?.info({ subject: mail.subject }, 'mail sent')
     },
