@@ -3,8 +3,9 @@ import { createInterface } from 'node:readline'
 import { parseArgs } from 'node:util'
 import { publicOrigin } from '../context.ts'
 import { createDatabase } from '../db/client.ts'
+import { pendingMigrations } from '../db/migrate.ts'
 import { jobSettingsOf, parseEnv } from '../env.ts'
-import { and, gte, isNull } from 'drizzle-orm'
+import { and, gte, inArray, isNull, sql } from 'drizzle-orm'
 import pino from 'pino'
 import { mailOutbox } from '../db/schema-accounts.ts'
 import { createJobQueue } from '../jobs/queue.ts'
@@ -28,8 +29,10 @@ const usage = `Sets up clubs with the standard catalogue and e-mails each direct
   npm run club:create -- --club "Name" --director-email a@b.example --director-name "Name"
   npm run club:create -- --file clubs.csv      (columns club,directorEmail,directorName)
 
-Uses DATABASE_URL, else the project-local database; mail goes to SMTP_URL, else to the local
-mail viewer, which stays open until you press Enter.`
+With DATABASE_URL (a deployment's database, migrated with npm run db:migrate), PUBLIC_URL is
+required and the invitations are queued for the deployment's workers to send. Without it, the
+project-local database is used and this command sends them itself: to SMTP_URL, else to the
+local mail viewer, which stays open until you press Enter.`
 
 function fail(message: string): never {
   console.error(`${message}\n\n${usage}`)
@@ -74,22 +77,42 @@ if (!csv && !checked.success) fail(describeIssues(checked.error.issues))
 
 const env = parseEnv()
 const local = await localDatabase(env.DATABASE_URL)
-await prepareDatabase(local.url, { seed: false })
+// A deployment's database is the deployment's to migrate and its workers' to serve: this
+// command only adds the clubs and queues their invitations there. It neither migrates it nor
+// starts a worker, which would take every queue's jobs, the other clubs' mail among them.
+if (local.external && !env.PUBLIC_URL) {
+  fail('PUBLIC_URL is required with DATABASE_URL: the invitations link to it.')
+}
+if (!local.external) await prepareDatabase(local.url, { seed: false })
 const database = createDatabase(local.url)
-const mailer = await createMailer(env)
-const jobs = createJobQueue(database.db, jobSettingsOf(env))
-// The invitations are queued with their clubs; a worker of this command's own sends them now
-// (workers elsewhere would too).
-const logger = pino({ level: 'silent' })
-const worker = await startJobWorker({
-  connectionString: local.url,
-  db: database.db,
-  mailer,
-  logger,
-  settings: jobSettingsOf(env),
-})
-jobs.attachWorker(worker.wake)
-const startedAt = new Date()
+if (local.external) {
+  const pending = await pendingMigrations(database.db)
+  if (pending > 0) {
+    await database.close()
+    fail(
+      `The database at DATABASE_URL lacks ${pending} migration(s): run npm run db:migrate first.`,
+    )
+  }
+}
+const settings = jobSettingsOf(env)
+const jobs = createJobQueue(database.db, settings)
+// On the project-local database, a worker of this command's own sends the invitations now.
+const mailer = local.external ? null : await createMailer(env)
+const worker = mailer
+  ? await startJobWorker({
+      connectionString: local.url,
+      db: database.db,
+      mailer,
+      logger: pino({ level: 'silent' }),
+      settings,
+    })
+  : null
+if (worker) jobs.attachWorker(worker.wake)
+// On the database's clock, which stamps the outbox's rows.
+const { rows: clock } = await database.db.execute<{ ms: number }>(
+  sql`select extract(epoch from now())::float8 * 1000 as ms`,
+)
+const startedAt = new Date(clock[0]!.ms)
 const deps = { db: database.db, jobs, origin: publicOrigin(env) }
 
 let outcomes: ClubSetupOutcome[] = []
@@ -113,14 +136,27 @@ if (outcomes.length > 0) {
   if (failed > 0) process.exitCode = 1
 }
 
-if (outcomes.length > failed) {
-  const unsent = async () =>
-    (
-      await database.db
-        .select({ id: mailOutbox.id })
-        .from(mailOutbox)
-        .where(and(isNull(mailOutbox.sentAt), gte(mailOutbox.createdAt, startedAt)))
-    ).length
+// The invitations of this run: to its directors, queued since it started.
+const invited = outcomes.filter((o) => o.status !== 'failed').map((o) => o.directorEmail)
+const unsent = async () =>
+  (
+    await database.db
+      .select({ id: mailOutbox.id })
+      .from(mailOutbox)
+      .where(
+        and(
+          isNull(mailOutbox.sentAt),
+          gte(mailOutbox.createdAt, startedAt),
+          inArray(mailOutbox.to, invited),
+        ),
+      )
+  ).length
+if (invited.length > 0 && !worker) {
+  console.log(
+    `${await unsent()} invitation(s) queued: the deployment's workers send them (npm run worker).`,
+  )
+}
+if (invited.length > 0 && worker) {
   for (let i = 0; i < 60 && (await unsent()) > 0; i++) await new Promise((r) => setTimeout(r, 500))
   const left = await unsent()
   console.log(
@@ -129,9 +165,9 @@ if (outcomes.length > failed) {
       : `${left} invitation(s) not sent yet: the mail server did not take them. Twofold's workers keep trying.`,
   )
 }
-await worker.stop()
+await worker?.stop()
 
-if (mailer.viewer && outcomes.length > failed) {
+if (mailer?.viewer && invited.length > 0) {
   // The local fake keeps its messages in this process: they go when it ends.
   console.log(`\nNo SMTP_URL: the invitations are in the local mail viewer, ${mailer.viewer.url}`)
   console.log('Press Enter (or Ctrl-C) when you have read them.')
@@ -148,6 +184,6 @@ if (mailer.viewer && outcomes.length > failed) {
     process.once('SIGTERM', done)
   })
 }
-await mailer.close()
+await mailer?.close()
 await database.close()
 if (local.cluster) stopCluster(local.cluster)

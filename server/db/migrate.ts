@@ -1,4 +1,6 @@
+import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
+import { sql } from 'drizzle-orm'
 import { drizzle } from 'drizzle-orm/node-postgres'
 import { migrate } from 'drizzle-orm/node-postgres/migrator'
 import pg from 'pg'
@@ -43,4 +45,23 @@ export async function applyMigrations(db: Db) {
     client.release(err as Error)
     throw err
   }
+}
+
+/**
+ * How many of the committed migrations this database has not applied yet (all of them on an
+ * empty one), read the way the migrator reads it: those made after the last one applied.
+ */
+export async function pendingMigrations(db: Db): Promise<number> {
+  const journal = JSON.parse(
+    readFileSync(join(migrationsFolder, 'meta', '_journal.json'), 'utf8'),
+  ) as { entries: { when: number }[] }
+  const { rows: table } = await db.execute<{ present: boolean }>(
+    sql`select to_regclass('drizzle.__drizzle_migrations') is not null as present`,
+  )
+  if (!table[0]?.present) return journal.entries.length
+  const { rows } = await db.execute<{ last: string | null }>(
+    sql`select max(created_at)::text as last from drizzle.__drizzle_migrations`,
+  )
+  const last = rows[0]?.last == null ? -Infinity : Number(rows[0].last)
+  return journal.entries.filter((e) => e.when > last).length
 }

@@ -19,7 +19,14 @@ export interface ClubSetupDeps {
 }
 
 export type ClubSetupOutcome =
-  | { row: number; club: string; status: 'created' | 'invited-again'; slug: string }
+  | {
+      row: number
+      club: string
+      status: 'created' | 'invited-again'
+      slug: string
+      /** Where the invitation goes, as the outbox has it. */
+      directorEmail: string
+    }
   | { row: number; club: string; status: 'failed'; reason: string }
 
 export const clubSetupColumns = ['club', 'directorEmail', 'directorName'] as const
@@ -150,6 +157,7 @@ export async function setUpClub(
         club: club.name,
         status: same ? 'invited-again' : 'created',
         slug: club.slug,
+        directorEmail: row.directorEmail,
       } as const
     })
   } catch (err) {

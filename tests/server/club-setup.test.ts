@@ -52,6 +52,7 @@ describe('setting up one club', () => {
       club: 'Harrowgate Trampoline Club',
       status: 'created',
       slug: 'harrowgate-trampoline-club',
+      directorEmail: 'mira.holt@harrowgate.example',
     })
     const club = (await clubNamed('Harrowgate Trampoline Club'))!
     const own = await database.db.select().from(elements).where(eq(elements.clubId, club.id))

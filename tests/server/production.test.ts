@@ -1,30 +1,19 @@
 import { spawnSync } from 'node:child_process'
-import { randomBytes } from 'node:crypto'
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { dirname, join } from 'node:path'
 import { count, sql } from 'drizzle-orm'
 import pg from 'pg'
-import { afterAll, describe, expect, inject, it } from 'vitest'
+import { afterAll, describe, expect, it } from 'vitest'
 import { prepareLocalDatabase } from '../../server/cli/bootstrap.ts'
 import { checkClientBuild, clientSources } from '../../server/cli/client-build.ts'
-import { clusterUrl, ensureDatabase } from '../../server/cli/postgres.ts'
-import { createDatabase, type Database } from '../../server/db/client.ts'
+import { createDatabase } from '../../server/db/client.ts'
 import { applyMigrations, migrationLockKey, migrationsFolder } from '../../server/db/migrate.ts'
 import { clubs } from '../../server/db/schema-accounts.ts'
 import { EnvError, parseEnv, parseMigrateEnv } from '../../server/env.ts'
 import { serve } from '../../server/index.ts'
 import { projectDir } from '../../server/paths.ts'
-import { freshDatabase } from '../support/database.ts'
-
-/** A new database with nothing in it, not even the migrations. */
-async function emptyDatabase(): Promise<Database & { url: string }> {
-  const cluster = inject('testCluster')
-  const name = `empty_${randomBytes(6).toString('hex')}`
-  await ensureDatabase(cluster, name)
-  const url = clusterUrl(cluster, name)
-  return { ...createDatabase(url), url }
-}
+import { emptyDatabase, freshDatabase } from '../support/database.ts'
 
 const journal = JSON.parse(readFileSync(join(migrationsFolder, 'meta/_journal.json'), 'utf8')) as {
   entries: { tag: string }[]

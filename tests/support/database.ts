@@ -11,3 +11,12 @@ export async function freshDatabase(): Promise<Database & { url: string }> {
   const url = clusterUrl(cluster, name)
   return { ...createDatabase(url), url }
 }
+
+/** A new database with nothing in it, not even the migrations. */
+export async function emptyDatabase(): Promise<Database & { url: string }> {
+  const cluster = inject('testCluster')
+  const name = `empty_${randomBytes(6).toString('hex')}`
+  await ensureDatabase(cluster, name)
+  const url = clusterUrl(cluster, name)
+  return { ...createDatabase(url), url }
+}
