@@ -60,7 +60,8 @@ const mismatch = (message: string) =>
  * then the athlete. Answers the keys of the clip objects, which the caller deletes from the
  * store once this has committed. Stored audits keep their figures; where they listed the
  * athlete, the athlete's id is replaced by a new one that nothing else holds, and reports show
- * no name for it; PDF reports already drawn are deleted; saved session plans drop the athlete.
+ * no name for it; PDF reports already drawn and club archives already made (or being made) are
+ * deleted; saved session plans drop the athlete.
  */
 export async function eraseAthlete(
   db: DbOrTx,
@@ -102,6 +103,9 @@ export async function eraseAthlete(
     // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
     await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
     await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
+    // So may every club archive (their bytes by the cascade). One being made now finds its row
+    // gone when it comes to store the zip, and stores nothing.
+    await tx.delete(clubArchives).where(eq(clubArchives.clubId, access.clubId))
     return erased.map((c) => c.key)
   })
 }

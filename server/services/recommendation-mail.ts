@@ -41,10 +41,13 @@ async function describe(db: DbOrTx, rec: Recommendation, origin: string) {
         .where(and(eq(athletes.clubId, rec.clubId), eq(athletes.id, rec.athleteId)))
     : []
   const about = athlete ? `${athlete.givenName} ${athlete.familyName} (${row!.squad})` : row!.squad
+  // A subject outlives the message in the outbox (its text is cleared once sent) and passes
+  // through the mail provider's logs: it names the squad, never an athlete.
+  const subjectAbout = athlete ? `an athlete of ${row!.squad}` : row!.squad
   const link = rec.athleteId
     ? `${origin}/athletes/${rec.athleteId}`
     : `${origin}/squads/${rec.squadId}`
-  return { club: row!.club, about, link }
+  return { club: row!.club, about, subjectAbout, link }
 }
 
 /** Mails the squad's coaches about a new recommendation, in `tx`'s transaction. */
@@ -54,11 +57,11 @@ export async function mailNewRecommendation(
   rec: Recommendation,
   origin: string,
 ) {
-  const { club, about, link } = await describe(tx, rec, origin)
+  const { club, about, subjectAbout, link } = await describe(tx, rec, origin)
   for (const to of await coachAddresses(tx, rec.clubId, rec.squadId))
     await enqueueMail(tx, jobs, {
       to,
-      subject: `${club}: a recommendation for ${about}`,
+      subject: `${club}: a recommendation for ${subjectAbout}`,
       text: [
         'Hello,',
         '',
@@ -86,11 +89,11 @@ export async function remindRecommendation(db: Db, jobs: JobQueue, job: Reminder
       )
       .for('update')
     if (!rec || rec.remindedAt || !stillOpen(rec.status)) return false
-    const { club, about, link } = await describe(tx, rec, job.origin)
+    const { club, about, subjectAbout, link } = await describe(tx, rec, job.origin)
     for (const to of await coachAddresses(tx, rec.clubId, rec.squadId))
       await enqueueMail(tx, jobs, {
         to,
-        subject: `${club}: reminder, a recommendation for ${about} is due ${rec.dueOn}`,
+        subject: `${club}: reminder, a recommendation for ${subjectAbout} is due ${rec.dueOn}`,
         text: [
           'Hello,',
           '',

@@ -3,7 +3,7 @@ import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { athletes, progressEvents, progressRecords } from '../../server/db/schema-athletes.ts'
-import { audits } from '../../server/db/schema-audits.ts'
+import { audits, clubArchiveFiles, clubArchives } from '../../server/db/schema-audits.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { runAndStore } from '../../server/services/audits.ts'
 import { appendHistory } from '../../server/services/progress-history.ts'
@@ -107,6 +107,16 @@ beforeAll(async () => {
     { squadId: null },
   )
   before = await read()
+  // A club archive made before: it holds Ada's rows. The other club has one too.
+  for (const clubId of [fx.club.id, other.club.id]) {
+    const [archive] = await database.db
+      .insert(clubArchives)
+      .values({ clubId, status: 'done', expiresAt: new Date(Date.now() + 86_400_000) })
+      .returning({ id: clubArchives.id })
+    await database.db
+      .insert(clubArchiveFiles)
+      .values({ clubId, archiveId: archive!.id, bytes: Buffer.from('Ada Quillmere') })
+  }
 })
 afterAll(async () => {
   await t.close()
@@ -148,6 +158,17 @@ describe('POST /api/clubs/:clubId/athletes/:athleteId/erase', () => {
     expect([kept.athletes.length, kept.events.length, kept.records.length]).toEqual([1, 2, 2])
     await director.get(`${base}/athletes/${ada}`).expect(404)
     await erase(director, ada, { confirmName: 'Ada Quillmere' }).expect(404)
+  })
+
+  it('deletes the club archives made before, which hold her rows; another club’s stay', async () => {
+    const archivesOf = async (clubId: string) => ({
+      archives: (await database.db.select().from(clubArchives)).filter((a) => a.clubId === clubId)
+        .length,
+      files: (await database.db.select().from(clubArchiveFiles)).filter((f) => f.clubId === clubId)
+        .length,
+    })
+    expect(await archivesOf(fx.club.id)).toEqual({ archives: 0, files: 0 })
+    expect(await archivesOf(other.club.id)).toEqual({ archives: 1, files: 1 })
   })
 
   it('keeps the stored audit’s figures and rows, under a neutral label and a new id', async () => {

@@ -91,8 +91,23 @@ describe('POST /api/clubs/:clubId/recommendations', () => {
       history: [{ status: 'open' }],
     })
     expect(res.body.suggestedStepName).toBeTypeOf('string')
-    const mails = await mailsTo(fx.people.coach.email, 'a recommendation for Ada Example')
+    const mails = await mailsTo(fx.people.coach.email, 'a recommendation for an athlete of Squad A')
     expect(mails).toHaveLength(1)
+    // The athlete is named in the text alone, which is cleared once the mail is sent: nothing
+    // kept in the outbox afterwards names them (an athlete erased later stays erased).
+    await expect
+      .poll(() =>
+        t.mailer
+          .fake!.messages()
+          .filter((m) => m.subject.includes('a recommendation for an athlete of Squad A'))
+          .map((m) => m.text.includes('for Ada Example (Squad A)')),
+      )
+      .toEqual([true])
+    await expect
+      .poll(async () => (await mailsTo(fx.people.coach.email, 'a recommendation'))[0]!.sentAt)
+      .not.toBeNull()
+    const [kept] = await mailsTo(fx.people.coach.email, 'a recommendation')
+    expect(JSON.stringify(kept)).not.toContain('Ada')
     // The coach of Squad B hears nothing of Squad A.
     expect(await mailsTo('coach-b@test.example', 'a recommendation')).toHaveLength(0)
     // The reminder is held back until 3 days (the default) before the due date.
