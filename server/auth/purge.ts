@@ -1,13 +1,29 @@
-import { inArray, isNotNull, lt, or, sql } from 'drizzle-orm'
+import { and, inArray, isNotNull, isNull, lt, or, sql } from 'drizzle-orm'
 import type { Db } from '../db/client.ts'
-import { clubSignups, passwordResets, rateLimits, sessions } from '../db/schema-accounts.ts'
+import {
+  clubSignups,
+  mailOutbox,
+  passwordResets,
+  rateLimits,
+  sessions,
+} from '../db/schema-accounts.ts'
 import { clubArchiveFiles, clubArchives, reportPdfFiles, reportPdfs } from '../db/schema-audits.ts'
+
+const day = 86_400_000
+
+/**
+ * How long the outbox keeps a message: sent, its row (recipient, subject, times; the text is
+ * cleared at sending) for a month, to answer "was it sent?"; never sent, a week, long after its
+ * retries gave up (about a day and a half), since its text may hold a link or a name.
+ */
+export const mailKeptDays = { sent: 30, unsent: 7 }
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime
  * moves the expiry no further, so it is covered), reset and club sign-up links that expired or
  * were used, limiter counters whose window closed, club archives past their 24 hours and PDF
- * reports past their hour (the bytes first, then the row). Safe to run from every process at once.
+ * reports past their hour (the bytes first, then the row), and mail past `mailKeptDays`. Safe to
+ * run from every process at once.
  */
 export async function purgeExpired(db: Db, now = new Date()) {
   const ended = await db
@@ -50,7 +66,19 @@ export async function purgeExpired(db: Db, now = new Date()) {
     .delete(reportPdfs)
     .where(lt(reportPdfs.expiresAt, now))
     .returning({ id: reportPdfs.id })
+  const sentBefore = new Date(now.getTime() - mailKeptDays.sent * day)
+  const unsentBefore = new Date(now.getTime() - mailKeptDays.unsent * day)
+  const mail = await db
+    .delete(mailOutbox)
+    .where(
+      or(
+        lt(mailOutbox.sentAt, sentBefore),
+        and(isNull(mailOutbox.sentAt), lt(mailOutbox.createdAt, unsentBefore)),
+      ),
+    )
+    .returning({ id: mailOutbox.id })
   return {
+    mail: mail.length,
     sessions: ended.length,
     resets: resets.length,
     signups: signups.length,

@@ -1,6 +1,7 @@
 import net from 'node:net'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { eq } from 'drizzle-orm'
+import { purgeExpired } from '../../server/auth/purge.ts'
 import { freePort } from '../../server/cli/postgres.ts'
 import type { Database } from '../../server/db/client.ts'
 import { mailOutbox } from '../../server/db/schema-accounts.ts'
@@ -93,6 +94,33 @@ describe('the mail outbox', () => {
         messageId: '<x@t.invalid>',
       }),
     ).rejects.toThrow(/greeting/i)
+  })
+
+  it('forgets a sent message after a month and one never sent after a week', async () => {
+    const now = new Date()
+    const daysAgo = (days: number) => new Date(now.getTime() - days * 86_400_000)
+    const rows = [
+      // [label, created, sent]: kept unless named "gone".
+      ['sent 31 days ago, gone', daysAgo(32), daysAgo(31)],
+      ['sent 29 days ago', daysAgo(29), daysAgo(29)],
+      ['never sent, 8 days old, gone', daysAgo(8), null],
+      ['never sent, 6 days old', daysAgo(6), null],
+    ] as const
+    for (const [label, createdAt, sentAt] of rows) {
+      await database.db
+        .insert(mailOutbox)
+        .values({ to: 'purge@club.invalid', subject: label, text: null, createdAt, sentAt })
+    }
+    const purged = await purgeExpired(database.db, now)
+    expect(purged.mail).toBe(2)
+    const left = await database.db
+      .select({ subject: mailOutbox.subject })
+      .from(mailOutbox)
+      .where(eq(mailOutbox.to, 'purge@club.invalid'))
+    expect(left.map((r) => r.subject).sort()).toEqual([
+      'never sent, 6 days old',
+      'sent 29 days ago',
+    ])
   })
 
   it('ends every send well before another worker may take its job over', () => {
