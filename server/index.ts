@@ -59,6 +59,7 @@ export async function serve(
         mailer,
         logger,
         settings: jobSettingsOf(env),
+        clips: (app.locals.context as AppContext).clips,
       })
     : undefined
   if (worker) (app.locals.context as AppContext).jobs.attachWorker(worker.wake)

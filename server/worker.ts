@@ -5,6 +5,7 @@ import { lowerAutogroupPriority, lowerProcessPriority } from './jobs/priority.ts
 import { startJobWorker } from './jobs/worker.ts'
 import { createLogger } from './logger.ts'
 import { createMailer } from './mail/mailer.ts'
+import { createClipStore } from './storage/clip-store.ts'
 
 /** How much lower than the web processes a worker runs (nice 10 of 19). */
 const workerNiceness = 10
@@ -38,6 +39,7 @@ export async function runWorker() {
     mailer,
     logger,
     settings: jobSettingsOf(env),
+    clips: createClipStore(env),
   })
   logger.info('worker started')
   let stopping = false

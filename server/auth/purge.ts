@@ -13,10 +13,10 @@ const day = 86_400_000
 
 /**
  * How long the outbox keeps a message: sent, its row (recipient, subject, times; the text is
- * cleared at sending) for a month, to answer "was it sent?"; never sent, a week, long after its
- * retries gave up (about a day and a half), since its text may hold a link or a name.
+ * cleared at sending) for a month, to answer "was it sent?"; never sent, ten days, after its
+ * last retry (5.7 days at most: queue.ts), since its text may hold a link or a name.
  */
-export const mailKeptDays = { sent: 30, unsent: 7 }
+export const mailKeptDays = { sent: 30, unsent: 10 }
 
 /**
  * Deletes what can no longer be used: sessions past their idle expiry (the absolute lifetime

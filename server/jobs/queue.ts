@@ -9,6 +9,7 @@ export const queues = {
   clubArchive: 'club-archive',
   recommendationReminder: 'recommendation-reminder',
   reportPdf: 'report-pdf',
+  clipRemoval: 'clip-removal',
 } as const
 export type QueueName = (typeof queues)[keyof typeof queues]
 
@@ -47,8 +48,9 @@ export const reportPdfTimeoutSeconds = 120
 export const mailJobExpirySeconds = 135
 
 /**
- * Retries with back-off: an audit, an archive or a PDF report a few times; mail for about a day while SMTP is
- * down.
+ * Retries with back-off: an audit, an archive or a PDF report a few times; mail for four to six
+ * days while SMTP is down (pg-boss waits retryDelay × 2^n × 1 to 2 seconds before retry n, n
+ * from 0: 14 retries from 15 s add up to 4.3 days on average, 5.7 at most).
  */
 export function queueOptions(settings: JobSettings) {
   return {
@@ -81,6 +83,14 @@ export function queueOptions(settings: JobSettings) {
       retryDelay: 2,
       retryBackoff: true,
       expireInSeconds: reportPdfTimeoutSeconds,
+    },
+    // Clip videos of an erased athlete or a deleted club: retried while the object store is
+    // unreachable, for four to six days (pg-boss waits retryDelay × 2^n × 1 to 2 before retry n).
+    [queues.clipRemoval]: {
+      retryLimit: 12,
+      retryDelay: 60,
+      retryBackoff: true,
+      expireInSeconds: 300,
     },
   } satisfies Record<QueueName, PgBoss.Queue extends infer Q ? Omit<Q, 'name'> : never>
 }

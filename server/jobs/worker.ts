@@ -8,6 +8,8 @@ import { processClubArchive } from '../services/club-archives.ts'
 import { remindRecommendation, type ReminderJob } from '../services/recommendation-mail.ts'
 import { closeReportPdfPool } from '../services/report-pdf-pool.ts'
 import { processReportPdf } from '../services/report-pdfs.ts'
+import type { ClipRemovalJob } from '../services/clips.ts'
+import type { ClipStore } from '../storage/clip-store.ts'
 import { createJobQueue, queueOptions, queues, type JobSettings, type QueueName } from './queue.ts'
 
 export interface JobWorkerOptions {
@@ -16,6 +18,11 @@ export interface JobWorkerOptions {
   mailer: Mailer
   logger: Logger
   settings: JobSettings
+  /**
+   * Where clip videos are stored. A worker without one leaves the clip removals to workers that
+   * have it (and they wait, should none have it).
+   */
+  clips?: ClipStore | null
 }
 
 export interface JobWorker {
@@ -26,8 +33,8 @@ export interface JobWorker {
 }
 
 /**
- * Takes jobs from the queues and does them: audits, club archives, PDF reports, reminders and
- * mail. Any number of workers, in any number of processes, share the queues; a job whose worker
+ * Takes jobs from the queues and does them: audits, club archives, PDF reports, reminders,
+ * mail and the removal of clip videos. Any number of workers, in any number of processes, share the queues; a job whose worker
  * died is expired by the others' maintenance and retried.
  */
 export async function startJobWorker(options: JobWorkerOptions): Promise<JobWorker> {
@@ -103,6 +110,26 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
       }
     },
   )
+  const store = options.clips
+  if (store) {
+    ids[queues.clipRemoval] = await boss.work<ClipRemovalJob>(
+      queues.clipRemoval,
+      workOptions,
+      async ([job]) => {
+        try {
+          await store.remove(job!.data.keys)
+        } catch (err) {
+          logger.warn(
+            { err: (err as Error).message, attempt: job!.retryCount + 1 },
+            'clip objects not deleted yet',
+          )
+          throw err
+        } finally {
+          next(queues.clipRemoval)
+        }
+      },
+    )
+  }
   // Reminders put mail on the queue in their own transaction.
   const sender = createJobQueue(db, settings)
   sender.attachWorker(next)

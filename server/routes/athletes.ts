@@ -91,6 +91,7 @@ export function athleteRoutes(ctx: AppContext): ClubRoute[] {
       handler: async (req, res) => {
         const objects = await eraseAthlete(
           ctx.db,
+          ctx.jobs,
           req.club,
           athleteParams.parse(req.params).athleteId,
           req.body,

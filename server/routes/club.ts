@@ -42,7 +42,7 @@ export function clubRoutes(ctx: AppContext): ClubRoute[] {
       path: '/',
       allow: ['director'],
       handler: async (req, res) => {
-        await removeClipObjects(ctx, await deleteClub(ctx.db, req.club, req.body))
+        await removeClipObjects(ctx, await deleteClub(ctx.db, ctx.jobs, req.club, req.body))
         res.status(204).end()
       },
     },

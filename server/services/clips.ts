@@ -21,6 +21,7 @@ import { athletes, squads } from '../db/schema-athletes.ts'
 import { elements } from '../db/schema-catalogue.ts'
 import { clipReviews, clips } from '../db/schema-visits.ts'
 import { AppError, notFound } from '../http/errors.ts'
+import { queues, type JobQueue } from '../jobs/queue.ts'
 import { clipObjectKey, type ClipStore } from '../storage/clip-store.ts'
 import { takeHead, withHead } from './clip-streams.ts'
 import { athleteInScope, assertCanReadSquad, readableSquadIds } from './scope.ts'
@@ -250,19 +251,33 @@ export async function markClipReviewed(db: DbOrTx, access: ClubAccess, clipId: s
   return view!
 }
 
+/** A clip removal job: the stored objects of clips whose rows are gone. */
+export interface ClipRemovalJob {
+  keys: string[]
+}
+
 /**
- * Deletes stored clip objects after the rows that named them are gone (the transaction that
- * erased them has committed). A failure is logged with the keys, for someone to remove them.
+ * Puts the removal of stored clip objects on the queue, in `tx`'s transaction: the rows that
+ * name them go and their removal is on its way together, or neither. A worker removes them,
+ * retrying while the store is unreachable; `removeClipObjects` tries at once as well.
+ */
+export async function queueClipRemoval(tx: DbOrTx, jobs: JobQueue, keys: string[]) {
+  if (keys.length > 0) await jobs.send(tx, queues.clipRemoval, { keys } satisfies ClipRemovalJob)
+}
+
+/**
+ * Deletes stored clip objects once the transaction that erased their rows (and queued their
+ * removal) has committed, so that they are gone by the time the answer is sent. Should the
+ * store fail now, the queued removal retries.
  */
 export async function removeClipObjects(ctx: AppContext, keys: string[]) {
-  if (keys.length === 0) return
-  if (!ctx.clips) {
-    ctx.logger.error({ keys }, 'clip objects left in storage: clips are turned off')
-    return
-  }
+  if (keys.length === 0 || !ctx.clips) return
   try {
     await ctx.clips.remove(keys)
   } catch (err) {
-    ctx.logger.error({ err: (err as Error).message, keys }, 'clip objects not deleted')
+    ctx.logger.warn(
+      { err: (err as Error).message, count: keys.length },
+      'clip objects not deleted yet: a worker retries',
+    )
   }
 }

@@ -51,6 +51,8 @@ import {
 import { plannerStations, sessionPlans } from '../db/schema-planner.ts'
 import { removeAthleteFromPlans } from './planner-plans.ts'
 import { AppError, notFound } from '../http/errors.ts'
+import type { JobQueue } from '../jobs/queue.ts'
+import { queueClipRemoval } from './clips.ts'
 
 const mismatch = (message: string) =>
   new AppError(400, 'confirmation_mismatch', message, [{ path: 'confirmName', message }])
@@ -58,13 +60,15 @@ const mismatch = (message: string) =>
 /**
  * Erases an athlete for good, in one transaction: their clips, progress history and records,
  * then the athlete. Answers the keys of the clip objects, which the caller deletes from the
- * store once this has committed. Stored audits keep their figures; where they listed the
+ * store once this has committed; their removal is queued in the same transaction as well, so
+ * that a worker retries it should the store fail then. Stored audits keep their figures; where they listed the
  * athlete, the athlete's id is replaced by a new one that nothing else holds, and reports show
  * no name for it; PDF reports already drawn and club archives already made (or being made) are
  * deleted; saved session plans drop the athlete.
  */
 export async function eraseAthlete(
   db: DbOrTx,
+  jobs: JobQueue,
   access: ClubAccess,
   athleteId: string,
   body: unknown,
@@ -103,6 +107,11 @@ export async function eraseAthlete(
     // A PDF report drawn before may name the athlete: the club's go, the next ask draws anew.
     await tx.delete(reportPdfFiles).where(eq(reportPdfFiles.clubId, access.clubId))
     await tx.delete(reportPdfs).where(eq(reportPdfs.clubId, access.clubId))
+    await queueClipRemoval(
+      tx,
+      jobs,
+      erased.map((c) => c.key),
+    )
     // So may every club archive (their bytes by the cascade). One being made now finds its row
     // gone when it comes to store the zip, and stores nothing.
     await tx.delete(clubArchives).where(eq(clubArchives.clubId, access.clubId))
@@ -139,9 +148,10 @@ async function unlinkFromAudits(tx: Tx, clubId: string, athleteId: string) {
  * Deletes a club and everything it holds, in one transaction, once its name is typed exactly.
  * Table by table within the club, children first, so that no step depends on a cascade; the
  * people keep their accounts (and their other clubs), and their sessions forget the club.
- * Answers the keys of the club's clip objects, for the caller to delete once this committed.
+ * Answers the keys of the club's clip objects, for the caller to delete once this committed
+ * (their removal is queued too, as for an erased athlete).
  */
-export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) {
+export async function deleteClub(db: DbOrTx, jobs: JobQueue, access: ClubAccess, body: unknown) {
   const { confirmName } = clubDeletionSchema.parse(body)
   const clubId = access.clubId
   return db.transaction(async (tx) => {
@@ -189,6 +199,11 @@ export async function deleteClub(db: DbOrTx, access: ClubAccess, body: unknown) 
     }
     await tx.update(sessions).set({ clubId: null }).where(eq(sessions.clubId, clubId))
     await tx.delete(clubs).where(eq(clubs.id, clubId))
+    await queueClipRemoval(
+      tx,
+      jobs,
+      objects.map((c) => c.key),
+    )
     return objects.map((c) => c.key)
   })
 }

@@ -71,12 +71,17 @@ export function createClipStore(
     async remove(keys) {
       // DeleteObjects takes up to 1,000 keys a request.
       for (let i = 0; i < keys.length; i += 1000) {
-        await client.send(
+        const { Errors } = await client.send(
           new DeleteObjectsCommand({
             Bucket: bucket,
             Delete: { Objects: keys.slice(i, i + 1000).map((Key) => ({ Key })), Quiet: true },
           }),
         )
+        // The request as a whole may succeed with some keys refused: those are told here.
+        if (Errors?.length) {
+          const first = Errors[0]!
+          throw new Error(`${Errors.length} clip object(s) not deleted: ${first.Code} ${first.Key}`)
+        }
       }
     },
   }

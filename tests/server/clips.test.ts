@@ -1,11 +1,13 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
+import { Readable } from 'node:stream'
 import { HeadObjectCommand, S3Client } from '@aws-sdk/client-s3'
 import { and, eq } from 'drizzle-orm'
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
 import { clips } from '../../server/db/schema-visits.ts'
+import { queues } from '../../server/jobs/queue.ts'
 import { projectDir } from '../../server/paths.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
 import { addMembership, createUser } from '../../server/services/members.ts'
@@ -283,5 +285,19 @@ describe('erasing the athlete', () => {
       await database.db.select().from(clips).where(eq(clips.athleteId, athleteId)),
     ).toHaveLength(0)
     expect(await objectExists(row!.objectKey)).toBe(false)
+    // Their removal was queued with the erasure as well: had the store failed just then, a
+    // worker would retry it.
+    const { rows } = await database.pool.query<{ data: { keys: string[] } }>(
+      "select data from pgboss.job where name = 'clip-removal'",
+    )
+    expect(rows.some((r) => r.data.keys.includes(row!.objectKey))).toBe(true)
+  })
+
+  it('has a worker delete the objects a queued removal names', async () => {
+    const key = `clubs/${fx.club.id}/clips/left-behind`
+    await t.context.clips!.put(key, Readable.from([webm]), webm.length, 'video/webm')
+    expect(await objectExists(key)).toBe(true)
+    await t.context.jobs.send(database.db, queues.clipRemoval, { keys: [key] })
+    await expect.poll(() => objectExists(key), { timeout: 10_000 }).toBe(false)
   })
 })

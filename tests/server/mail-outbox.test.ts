@@ -96,15 +96,15 @@ describe('the mail outbox', () => {
     ).rejects.toThrow(/greeting/i)
   })
 
-  it('forgets a sent message after a month and one never sent after a week', async () => {
+  it('forgets a sent message after a month and one never sent after ten days', async () => {
     const now = new Date()
     const daysAgo = (days: number) => new Date(now.getTime() - days * 86_400_000)
     const rows = [
       // [label, created, sent]: kept unless named "gone".
       ['sent 31 days ago, gone', daysAgo(32), daysAgo(31)],
       ['sent 29 days ago', daysAgo(29), daysAgo(29)],
-      ['never sent, 8 days old, gone', daysAgo(8), null],
-      ['never sent, 6 days old', daysAgo(6), null],
+      ['never sent, 11 days old, gone', daysAgo(11), null],
+      ['never sent, 9 days old', daysAgo(9), null],
     ] as const
     for (const [label, createdAt, sentAt] of rows) {
       await database.db
@@ -118,7 +118,7 @@ describe('the mail outbox', () => {
       .from(mailOutbox)
       .where(eq(mailOutbox.to, 'purge@club.invalid'))
     expect(left.map((r) => r.subject).sort()).toEqual([
-      'never sent, 6 days old',
+      'never sent, 9 days old',
       'sent 29 days ago',
     ])
   })

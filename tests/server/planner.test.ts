@@ -286,7 +286,7 @@ describe('erasing an athlete for good', () => {
       userId: fx.people.director.id,
       role: 'director' as const,
     }
-    await eraseAthlete(database.db, director, gone, { confirmName: 'Ada Leaving' })
+    await eraseAthlete(database.db, t.context.jobs, director, gone, { confirmName: 'Ada Leaving' })
     const after = await coach.get(`${base}/plans/${saved.body.id}`).expect(200)
     expect(JSON.stringify(after.body)).not.toContain(gone)
     expect(after.body.model.athletes.map((a: { id: string }) => a.id)).toEqual([fresh])

@@ -56,6 +56,7 @@ export async function testApp(
           mailer,
           logger,
           settings: testJobSettings,
+          clips: context.clips,
         })
   if (worker) context.jobs.attachWorker(worker.wake)
   return {
