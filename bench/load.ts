@@ -218,8 +218,14 @@ export async function paced(url: string, perSecond: number): Promise<Paced> {
   return {
     responses,
     async stop() {
-      const answered = new Promise<PacedResponse[]>((resolve) => child.once('message', resolve))
-      child.send('stop')
+      // Should the sender have died meanwhile, this says so rather than waiting for ever.
+      const answered = new Promise<PacedResponse[]>((resolve, reject) => {
+        child.once('message', resolve)
+        // 'close' comes after every message the channel carried: a reject then changes nothing
+        // once the answer arrived.
+        child.once('close', () => reject(new Error('the paced sender ended before answering')))
+      })
+      if (child.connected) child.send('stop')
       responses.push(...(await answered))
       await exited
     },

@@ -8,7 +8,7 @@ import { jobSettingsOf, parseEnv } from '../env.ts'
 import { and, gte, inArray, isNull, sql } from 'drizzle-orm'
 import pino from 'pino'
 import { mailOutbox } from '../db/schema-accounts.ts'
-import { createJobQueue } from '../jobs/queue.ts'
+import { createJobQueue, missingQueues } from '../jobs/queue.ts'
 import { startJobWorker } from '../jobs/worker.ts'
 import { createMailer } from '../mail/mailer.ts'
 import { clubSetupRowSchema } from '../../shared/schemas/signup.ts'
@@ -87,11 +87,12 @@ if (!local.external) await prepareDatabase(local.url, { seed: false })
 const database = createDatabase(local.url)
 if (local.external) {
   const pending = await pendingMigrations(database.db)
-  if (pending > 0) {
+  const queuesMissing = await missingQueues(database.db)
+  if (pending > 0 || queuesMissing.length > 0) {
     await database.close()
-    fail(
-      `The database at DATABASE_URL lacks ${pending} migration(s): run npm run db:migrate first.`,
-    )
+    const lacks =
+      pending > 0 ? `${pending} migration(s)` : `the job queues ${queuesMissing.join(', ')}`
+    fail(`The database at DATABASE_URL lacks ${lacks}: run npm run db:migrate first.`)
   }
 }
 const settings = jobSettingsOf(env)

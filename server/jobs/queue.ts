@@ -1,6 +1,7 @@
 import PgBoss from 'pg-boss'
 import { sql, type SQL } from 'drizzle-orm'
 import type { DbOrTx } from '../db/client.ts'
+import { AppError } from '../http/errors.ts'
 
 /** The queues of Twofold's background work. */
 export const queues = {
@@ -48,9 +49,9 @@ export const reportPdfTimeoutSeconds = 120
 export const mailJobExpirySeconds = 135
 
 /**
- * Retries with back-off: an audit, an archive or a PDF report a few times; mail for four to six
- * days while SMTP is down (pg-boss waits retryDelay × 2^n × 1 to 2 seconds before retry n, n
- * from 0: 14 retries from 15 s add up to 4.3 days on average, 5.7 at most).
+ * Retries with back-off: an audit, an archive or a PDF report a few times; mail for about three
+ * to six days while SMTP is down (pg-boss waits retryDelay × 2^n × 1 to 2 seconds before retry
+ * n, n from 0: 14 retries from 15 s add up to 2.8 to 5.7 days, 4.3 on average).
  */
 export function queueOptions(settings: JobSettings) {
   return {
@@ -85,7 +86,7 @@ export function queueOptions(settings: JobSettings) {
       expireInSeconds: reportPdfTimeoutSeconds,
     },
     // Clip videos of an erased athlete or a deleted club: retried while the object store is
-    // unreachable, for four to six days (pg-boss waits retryDelay × 2^n × 1 to 2 before retry n).
+    // unreachable, for 2.8 to 5.7 days (as mail: 12 retries from 60 s).
     [queues.clipRemoval]: {
       retryLimit: 12,
       retryDelay: 60,
@@ -136,9 +137,18 @@ export function createJobQueue(db: DbOrTx, settings: JobSettings = defaultJobSet
         ...timing,
         db: jobExecutor(tx),
       })
+      // pg-boss writes nothing, and answers null, for a queue it does not have: a database whose
+      // job queues this release's `npm run db:migrate` has not installed yet. Told, not lost.
+      if (id === null) {
+        throw new AppError(
+          503,
+          'jobs_not_ready',
+          'The server is not ready for this yet (its job queues are missing). Try again later.',
+        )
+      }
       // A worker in this process looks a moment later, once the caller's transaction committed.
       if (waker) setTimeout(() => waker?.(queue), 30).unref()
-      return id!
+      return id
     },
     /**
      * True when the job will not run again (its last attempt failed, or it was cancelled), from
@@ -155,6 +165,18 @@ export function createJobQueue(db: DbOrTx, settings: JobSettings = defaultJobSet
 }
 
 export type JobQueue = ReturnType<typeof createJobQueue>
+
+/** The queues of this release that the database lacks (all of them before the first migration). */
+export async function missingQueues(db: DbOrTx): Promise<string[]> {
+  const { rows: schema } = await db.execute<{ present: boolean }>(
+    sql`select to_regclass('pgboss.queue') is not null as present`,
+  )
+  const wanted: string[] = Object.values(queues)
+  if (!schema[0]?.present) return wanted
+  const { rows } = await db.execute<{ name: string }>(sql`select name from pgboss.queue`)
+  const present = new Set(rows.map((r) => r.name))
+  return wanted.filter((name) => !present.has(name))
+}
 
 /**
  * Installs or updates pg-boss's own tables (schema `pgboss`) and Twofold's queues. Part of the

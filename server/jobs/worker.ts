@@ -119,10 +119,20 @@ export async function startJobWorker(options: JobWorkerOptions): Promise<JobWork
         try {
           await store.remove(job!.data.keys)
         } catch (err) {
-          logger.warn(
-            { err: (err as Error).message, attempt: job!.retryCount + 1 },
-            'clip objects not deleted yet',
-          )
+          const lastAttempt =
+            job!.retryCount >= (job!.retryLimit ?? limits[queues.clipRemoval].retryLimit)
+          if (lastAttempt) {
+            // Nothing retries after this: the keys, for someone to remove by hand.
+            logger.error(
+              { err: (err as Error).message, keys: job!.data.keys },
+              'clip objects of erased rows left in storage',
+            )
+          } else {
+            logger.warn(
+              { err: (err as Error).message, attempt: job!.retryCount + 1 },
+              'clip objects not deleted yet',
+            )
+          }
           throw err
         } finally {
           next(queues.clipRemoval)

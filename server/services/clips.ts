@@ -271,7 +271,14 @@ export async function queueClipRemoval(tx: DbOrTx, jobs: JobQueue, keys: string[
  * store fail now, the queued removal retries.
  */
 export async function removeClipObjects(ctx: AppContext, keys: string[]) {
-  if (keys.length === 0 || !ctx.clips) return
+  if (keys.length === 0) return
+  if (!ctx.clips) {
+    ctx.logger.error(
+      { keys },
+      'clip objects left in storage for now: clips are turned off here; a worker with the S3 settings removes them',
+    )
+    return
+  }
   try {
     await ctx.clips.remove(keys)
   } catch (err) {

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { and, eq, sql } from 'drizzle-orm'
+import { and, eq, isNull, sql } from 'drizzle-orm'
 import {
   athleteFullName,
   confirmationMatches,
@@ -13,6 +13,7 @@ import {
   clubs,
   invitationTokens,
   invitations,
+  mailOutbox,
   memberships,
   sessions,
 } from '../db/schema-accounts.ts'
@@ -75,6 +76,9 @@ export async function eraseAthlete(
 ) {
   const { confirmName } = athleteErasureSchema.parse(body)
   return db.transaction(async (tx) => {
+    // Locking the club row holds off, until this commits, anything new that points at the club
+    // (a club archive asked for meanwhile would otherwise read the athlete as they were).
+    await tx.select({ id: clubs.id }).from(clubs).where(eq(clubs.id, access.clubId)).for('update')
     const [athlete] = await tx
       .select()
       .from(athletes)
@@ -112,6 +116,16 @@ export async function eraseAthlete(
       jobs,
       erased.map((c) => c.key),
     )
+    // Mail not sent yet that is about them (a recommendation links to the athlete's page): its
+    // text names them, so it goes unsent.
+    await tx
+      .delete(mailOutbox)
+      .where(
+        and(
+          isNull(mailOutbox.sentAt),
+          sql`strpos(${mailOutbox.text}, ${`/athletes/${athleteId}`}) > 0`,
+        ),
+      )
     // So may every club archive (their bytes by the cascade). One being made now finds its row
     // gone when it comes to store the zip, and stores nothing.
     await tx.delete(clubArchives).where(eq(clubArchives.clubId, access.clubId))

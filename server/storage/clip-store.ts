@@ -17,6 +17,9 @@ export interface ClipStore {
   remove(keys: string[]): Promise<void>
 }
 
+/** How long one request deleting objects may take (ms), so that a hung store holds nothing. */
+const removeTimeoutMs = 20_000
+
 export const clipObjectKey = (clubId: string, clipId: string) => `clubs/${clubId}/clips/${clipId}`
 
 /**
@@ -69,19 +72,27 @@ export function createClipStore(
       return object.Body as Readable
     },
     async remove(keys) {
-      // DeleteObjects takes up to 1,000 keys a request.
+      // DeleteObjects takes up to 1,000 keys a request. Every batch is tried, whatever an
+      // earlier one met; what was refused (the whole request, or some keys in a request that
+      // succeeded) is told at the end.
+      const refused: string[] = []
       for (let i = 0; i < keys.length; i += 1000) {
-        const { Errors } = await client.send(
-          new DeleteObjectsCommand({
-            Bucket: bucket,
-            Delete: { Objects: keys.slice(i, i + 1000).map((Key) => ({ Key })), Quiet: true },
-          }),
-        )
-        // The request as a whole may succeed with some keys refused: those are told here.
-        if (Errors?.length) {
-          const first = Errors[0]!
-          throw new Error(`${Errors.length} clip object(s) not deleted: ${first.Code} ${first.Key}`)
+        const batch = keys.slice(i, i + 1000)
+        try {
+          const { Errors } = await client.send(
+            new DeleteObjectsCommand({
+              Bucket: bucket,
+              Delete: { Objects: batch.map((Key) => ({ Key })), Quiet: true },
+            }),
+            { abortSignal: AbortSignal.timeout(removeTimeoutMs) },
+          )
+          for (const e of Errors ?? []) refused.push(`${e.Key}: ${e.Code}`)
+        } catch (err) {
+          refused.push(`${batch.length} object(s): ${(err as Error).message}`)
         }
+      }
+      if (refused.length > 0) {
+        throw new Error(`clip objects not deleted: ${refused.slice(0, 3).join('; ')}`)
       }
     },
   }

@@ -2,6 +2,7 @@ import { and, eq, or } from 'drizzle-orm'
 import type TestAgent from 'supertest/lib/agent.js'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Database } from '../../server/db/client.ts'
+import { mailOutbox } from '../../server/db/schema-accounts.ts'
 import { athletes, progressEvents, progressRecords } from '../../server/db/schema-athletes.ts'
 import { audits, clubArchiveFiles, clubArchives } from '../../server/db/schema-audits.ts'
 import { createAthlete } from '../../server/services/athletes.ts'
@@ -117,6 +118,17 @@ beforeAll(async () => {
       .insert(clubArchiveFiles)
       .values({ clubId, archiveId: archive!.id, bytes: Buffer.from('Ada Quillmere') })
   }
+  // Recommendation mail not sent yet (the mail server down), about Ada and about Bea.
+  for (const [who, name] of [
+    [ada, 'Ada Quillmere'],
+    [bea, 'Bea Harrowfield'],
+  ] as const) {
+    await database.db.insert(mailOutbox).values({
+      to: 'coach-erase@test.example',
+      subject: 'Club: a recommendation for an athlete of Squad A',
+      text: `A recommendation for ${name} (Squad A): https://club.invalid/athletes/${who}`,
+    })
+  }
 })
 afterAll(async () => {
   await t.close()
@@ -169,6 +181,16 @@ describe('POST /api/clubs/:clubId/athletes/:athleteId/erase', () => {
     })
     expect(await archivesOf(fx.club.id)).toEqual({ archives: 0, files: 0 })
     expect(await archivesOf(other.club.id)).toEqual({ archives: 1, files: 1 })
+  })
+
+  it('drops mail about her not sent yet, and keeps the mail about others', async () => {
+    const left = await database.db
+      .select({ text: mailOutbox.text })
+      .from(mailOutbox)
+      .where(eq(mailOutbox.to, 'coach-erase@test.example'))
+    expect(left.map((m) => m.text)).toEqual([
+      `A recommendation for Bea Harrowfield (Squad A): https://club.invalid/athletes/${bea}`,
+    ])
   })
 
   it('keeps the stored audit’s figures and rows, under a neutral label and a new id', async () => {

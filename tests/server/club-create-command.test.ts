@@ -3,6 +3,7 @@ import { eq, sql } from 'drizzle-orm'
 import { describe, expect, it } from 'vitest'
 import { clubs, mailOutbox } from '../../server/db/schema-accounts.ts'
 import { pendingMigrations } from '../../server/db/migrate.ts'
+import { createJobQueue, missingQueues, queues } from '../../server/jobs/queue.ts'
 import { projectDir } from '../../server/paths.ts'
 import { emptyDatabase, freshDatabase } from '../support/database.ts'
 
@@ -80,6 +81,30 @@ describe('setting up a club in a deployment’s database', () => {
         sql`select to_regclass('public.clubs') is not null as present`,
       )
       expect(rows[0]?.present).toBe(false)
+    } finally {
+      await database.close()
+    }
+  }, 60_000)
+})
+
+describe('a database whose job queues this release has not installed', () => {
+  it('refuses a job for a missing queue, and club:create sends the operator to db:migrate', async () => {
+    const database = await freshDatabase()
+    try {
+      expect(await missingQueues(database.db)).toEqual([])
+      await database.pool.query("delete from pgboss.queue where name = 'clip-removal'")
+      expect(await missingQueues(database.db)).toEqual(['clip-removal'])
+      // pg-boss would answer null and write nothing: the sender says so instead.
+      const jobs = createJobQueue(database.db)
+      await expect(
+        jobs.send(database.db, queues.clipRemoval, { keys: ['clubs/x/clips/y'] }),
+      ).rejects.toMatchObject({ status: 503, code: 'jobs_not_ready' })
+      const run = createClub({
+        DATABASE_URL: database.url,
+        PUBLIC_URL: 'https://clubs.example.org',
+      })
+      expect(run.status).toBe(2)
+      expect(run.stderr).toContain('lacks the job queues clip-removal: run npm run db:migrate')
     } finally {
       await database.close()
     }
