@@ -293,6 +293,36 @@ describe('erasing the athlete', () => {
     expect(rows.some((r) => r.data.keys.includes(row!.objectKey))).toBe(true)
   })
 
+  it('leaves the objects to a worker when the store fails just as the athlete is erased', async () => {
+    const cy = await createAthlete(database.db, fx.club.id, {
+      givenName: 'Cy',
+      familyName: 'Example',
+      birthYear: 2013,
+      squadId: fx.squad.id,
+      discipline: 'artistic-women',
+    })
+    const clip = (await upload(coach, webm, { athleteId: cy.id })).body
+    const [row] = await database.db
+      .select()
+      .from(clips)
+      .where(and(eq(clips.clubId, fx.club.id), eq(clips.id, clip.id)))
+    // The web process's store refuses every request from now on; the worker's still works.
+    const working = t.context.clips
+    t.context.clips = {
+      ...working!,
+      remove: () => Promise.reject(new Error('the store is unreachable')),
+    }
+    try {
+      await director
+        .post(`${base()}/athletes/${cy.id}/erase`)
+        .send({ confirmName: 'Cy Example' })
+        .expect(204)
+    } finally {
+      t.context.clips = working
+    }
+    await expect.poll(() => objectExists(row!.objectKey), { timeout: 10_000 }).toBe(false)
+  })
+
   it('has a worker delete the objects a queued removal names', async () => {
     const key = `clubs/${fx.club.id}/clips/left-behind`
     await t.context.clips!.put(key, Readable.from([webm]), webm.length, 'video/webm')
