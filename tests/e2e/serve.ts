@@ -1,4 +1,5 @@
 import { existsSync } from 'node:fs'
+import { createServer } from 'node:net'
 import { join } from 'node:path'
 import { parseEnv } from '../../server/env.ts'
 import { defaultClientDir, serve } from '../../server/index.ts'
@@ -19,6 +20,14 @@ if (!existsSync(join(defaultClientDir, 'index.html'))) {
   console.error('No client build in dist/: run `npm run build` first.')
   process.exit(1)
 }
+// The app's port is held from the start until the app listens on it: the cluster, the clip store
+// and the mail fakes below take free ports of their own, and could otherwise be handed this one.
+const port = Number(process.env.E2E_PORT ?? 3100)
+const reservation = createServer()
+await new Promise<void>((resolve, reject) => {
+  reservation.once('error', reject)
+  reservation.listen(port, '127.0.0.1', resolve)
+})
 const cluster = await throwawayCluster('twofold-e2e-')
 startCluster(cluster)
 await ensureDatabase(cluster, 'twofold_e2e')
@@ -27,13 +36,14 @@ const url = clusterUrl(cluster, 'twofold_e2e')
 const storage = await localClipStorage(
   parseEnv({
     ...process.env,
-    PORT: process.env.E2E_PORT ?? '3100',
+    PORT: String(port),
     LOG_LEVEL: 'warn',
     DATABASE_URL: url,
   }),
 )
 const env = storage.env
 await prepareDatabase(url, { clips: createClipStore(env) })
+await new Promise<void>((resolve) => reservation.close(() => resolve()))
 const serving = await serve({ ...env, NODE_ENV: 'test' }, { worker: true })
 console.log(`e2e server on ${serving.url}`)
 
