@@ -22,8 +22,9 @@ if (!existsSync(join(defaultClientDir, 'index.html'))) {
 }
 // The app's port is held from the start until the app listens on it: the cluster, the clip store
 // and the mail fakes below take free ports of their own, and could otherwise be handed this one.
+// A connection meanwhile (Playwright asking whether the server is up) is closed at once: not up.
 const port = Number(process.env.E2E_PORT ?? 3100)
-const reservation = createServer()
+const reservation = createServer((socket) => socket.destroy())
 await new Promise<void>((resolve, reject) => {
   reservation.once('error', reject)
   reservation.listen(port, '127.0.0.1', resolve)
